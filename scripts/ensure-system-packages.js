@@ -24,12 +24,16 @@ if (!isRoot && !canSudo) {
 }
 
 console.error(`Installing Debian packages the tests need: ${missing.join(', ')}`);
-const [command, args] = isRoot ? ['sh', ['-c', installCommand]] : ['sudo', ['-n', 'sh', '-c', installCommand]];
+const [command, args] = isRoot
+  ? ['sh', ['-c', installCommand]]
+  : ['sudo', ['-n', 'sh', '-c', installCommand]];
 const env = { ...process.env, DEBIAN_FRONTEND: 'noninteractive' };
 try {
   execFileSync(command, args, { stdio: ['ignore', 'inherit', 'inherit'], env });
 } catch {
-  console.error(`Installing failed. Run this yourself, then npm test again:\n  sudo sh -c '${installCommand}'`);
+  console.error(
+    `Installing failed. Run this yourself, then npm test again:\n  sudo sh -c '${installCommand}'`,
+  );
   process.exit(1);
 }
 const stillMissing = packages.filter((pkg) => !existsSync(pkg.proves)).map((pkg) => pkg.name);
