@@ -1,0 +1,3 @@
+export * from './formatIssues.ts';
+export * from './runConfig.ts';
+export * from './serverConfig.ts';

@@ -1,0 +1,188 @@
+/** The read side of the archive: runs, readings, quarantine, counts, the outbox cursor. */
+import type Database from 'better-sqlite3';
+import type { RunConfig } from '../config/runConfig.ts';
+import type { QuarantinedMessage, RunRecord, StoredReading } from './types.ts';
+
+export interface ReadingFilter {
+  /** Only this sensor name (any device), or `device/sensor`. */
+  sensor?: string;
+  /** Event time from, ms since the epoch, inclusive. */
+  fromMs?: number;
+  /** Event time to, ms since the epoch, exclusive. */
+  toMs?: number;
+  /** At most this many readings (default 100,000, our assumption), in event-time order. */
+  limit?: number;
+}
+
+interface RunRow {
+  id: string;
+  site: string;
+  config_json: string;
+  placed_at_ms: number;
+  created_at_ms: number;
+  closed_at_ms: number | null;
+}
+
+const READING_COLUMNS = `
+  rd.id, rd.run_id AS runId, r.site, d.name AS device, s.name AS sensor, s.quantity,
+  s.depth_mm AS depthMm, rd.event_at_ms AS eventAtMs, rd.received_at_ms AS receivedAtMs,
+  rd.value, rd.unit, rd.update_interval_s AS updateIntervalS, rd.message_id AS messageId
+  FROM readings rd JOIN sensors s ON s.id = rd.sensor_id JOIN devices d ON d.id = s.device_id
+  JOIN runs r ON r.id = rd.run_id`;
+
+export class ArchiveQueries {
+  protected readonly db: Database.Database;
+
+  constructor(db: Database.Database) {
+    this.db = db;
+  }
+
+  getRun(id: string): RunRecord | null {
+    const row = this.db.prepare('SELECT * FROM runs WHERE id = ?').get(id) as RunRow | undefined;
+    return row === undefined ? null : toRun(row);
+  }
+
+  /** Every run, newest first. */
+  listRuns(): RunRecord[] {
+    const rows = this.db
+      .prepare('SELECT * FROM runs ORDER BY created_at_ms DESC, id')
+      .all() as RunRow[];
+    return rows.map(toRun);
+  }
+
+  /** A run's readings in event-time order, filtered by sensor and event time. */
+  readings(runId: string, filter: ReadingFilter = {}): StoredReading[] {
+    const where = ['rd.run_id = ?'];
+    const params: (string | number)[] = [runId];
+    if (filter.sensor !== undefined) {
+      const slash = filter.sensor.indexOf('/');
+      if (slash > 0) {
+        where.push('d.name = ? AND s.name = ?');
+        params.push(filter.sensor.slice(0, slash), filter.sensor.slice(slash + 1));
+      } else {
+        where.push('s.name = ?');
+        params.push(filter.sensor);
+      }
+    }
+    if (filter.fromMs !== undefined) {
+      where.push('rd.event_at_ms >= ?');
+      params.push(filter.fromMs);
+    }
+    if (filter.toMs !== undefined) {
+      where.push('rd.event_at_ms < ?');
+      params.push(filter.toMs);
+    }
+    params.push(filter.limit ?? 100_000);
+    return this.db
+      .prepare(
+        `SELECT ${READING_COLUMNS} WHERE ${where.join(' AND ')} ORDER BY rd.event_at_ms, rd.id LIMIT ?`,
+      )
+      .all(...params) as StoredReading[];
+  }
+
+  /** Readings stored after `afterId` in storage order: the outbox's next batch. */
+  readingsAfter(afterId: number, limit: number): StoredReading[] {
+    return this.db
+      .prepare(`SELECT ${READING_COLUMNS} WHERE rd.id > ? ORDER BY rd.id LIMIT ?`)
+      .all(afterId, limit) as StoredReading[];
+  }
+
+  /** Number of readings stored after `afterId` (an outbox's backlog). */
+  countReadingsAfter(afterId: number): number {
+    return (
+      this.db.prepare('SELECT COUNT(*) AS n FROM readings WHERE id > ?').get(afterId) as {
+        n: number;
+      }
+    ).n;
+  }
+
+  /** The outbox cursor `name`: id of the last reading delivered, 0 when none. */
+  outboxCursor(name: string): number {
+    const row = this.db
+      .prepare('SELECT last_reading_id AS id FROM outbox_cursor WHERE name = ?')
+      .get(name) as { id: number } | undefined;
+    return row?.id ?? 0;
+  }
+
+  setOutboxCursor(name: string, lastReadingId: number): void {
+    this.db
+      .prepare(
+        `INSERT INTO outbox_cursor (name, last_reading_id) VALUES (?, ?)
+         ON CONFLICT (name) DO UPDATE SET last_reading_id = excluded.last_reading_id`,
+      )
+      .run(name, lastReadingId);
+  }
+
+  /** Quarantined messages of a run (or those that matched no run, with `null`), oldest first. */
+  quarantine(runId: string | null, limit = 1000): QuarantinedMessage[] {
+    const sql = `SELECT id, run_id AS runId, reason, detail, topic, received_at_ms AS receivedAtMs,
+                 byte_length AS byteLength, bytes, sha256 FROM quarantine
+                 WHERE run_id ${runId === null ? 'IS NULL' : '= ?'} ORDER BY id LIMIT ?`;
+    const params = runId === null ? [limit] : [runId, limit];
+    return this.db.prepare(sql).all(...params) as QuarantinedMessage[];
+  }
+
+  /** Quarantined messages per reason, for one run or (no argument) the whole archive. */
+  quarantineCounts(runId?: string): Record<string, number> {
+    const rows = (
+      runId === undefined
+        ? this.db.prepare('SELECT reason, COUNT(*) AS n FROM quarantine GROUP BY reason').all()
+        : this.db
+            .prepare(
+              'SELECT reason, COUNT(*) AS n FROM quarantine WHERE run_id = ? GROUP BY reason',
+            )
+            .all(runId)
+    ) as { reason: string; n: number }[];
+    return Object.fromEntries(rows.map((row) => [row.reason, row.n]));
+  }
+
+  /** Rows per table, for health and tests. */
+  counts(runId?: string): {
+    readings: number;
+    messages: number;
+    quarantine: number;
+    records: number;
+  } {
+    const count = (table: string) =>
+      (
+        (runId === undefined
+          ? this.db.prepare(`SELECT COUNT(*) AS n FROM ${table}`).get()
+          : this.db.prepare(`SELECT COUNT(*) AS n FROM ${table} WHERE run_id = ?`).get(runId)) as {
+          n: number;
+        }
+      ).n;
+    return {
+      readings: count('readings'),
+      messages: count('raw_messages'),
+      quarantine: count('quarantine'),
+      records: count('records'),
+    };
+  }
+
+  /** A run's record order: `[seq, kind, rowId]` rows from `fromSeq` on. */
+  records(runId: string, fromSeq = 1): { seq: number; kind: string; rowId: number }[] {
+    return this.db
+      .prepare(
+        'SELECT seq, kind, row_id AS rowId FROM records WHERE run_id = ? AND seq >= ? ORDER BY seq',
+      )
+      .all(runId, fromSeq) as { seq: number; kind: string; rowId: number }[];
+  }
+
+  /** `PRAGMA integrity_check`: `['ok']` when the file is sound. */
+  integrityCheck(): string[] {
+    return (this.db.pragma('integrity_check') as { integrity_check: string }[]).map(
+      (row) => row.integrity_check,
+    );
+  }
+}
+
+function toRun(row: RunRow): RunRecord {
+  return {
+    id: row.id,
+    site: row.site,
+    config: JSON.parse(row.config_json) as RunConfig,
+    placedAtMs: row.placed_at_ms,
+    createdAtMs: row.created_at_ms,
+    closedAtMs: row.closed_at_ms,
+  };
+}
