@@ -1,0 +1,9 @@
+/**
+ * The registry of `meniscus` commands, in the order `meniscus --help` lists them. To add a
+ * command, write one file exporting a `CommandDefinition` and add it here.
+ */
+import type { CommandDefinition } from './commandDefinition.ts';
+import { evaporationCommand } from './evaporationCommand.ts';
+import { maturityCommand } from './maturityCommand.ts';
+
+export const COMMANDS: readonly CommandDefinition[] = [evaporationCommand, maturityCommand];
