@@ -5,3 +5,4 @@ export type * from './retentionCurve.ts';
 export * from './evaporation.ts';
 export * from './windProfile.ts';
 export * from './curingMeasures.ts';
+export * from './concreteClass.ts';
