@@ -6,3 +6,5 @@ export * from './evaporation.ts';
 export * from './windProfile.ts';
 export * from './curingMeasures.ts';
 export * from './concreteClass.ts';
+export * from './maturity.ts';
+export * from './hydration.ts';
