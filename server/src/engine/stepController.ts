@@ -1,0 +1,133 @@
+/**
+ * Adaptive time stepping for the moisture transport: grows the step while the Picard iteration
+ * converges easily, shortens it and retries when it fails, and lands exactly on the requested
+ * event time (the readings' own timestamps drive the model, architecture.md "Event time").
+ */
+import type { DepthGrid } from './grid.ts';
+import type { CellHydraulics } from './hydraulics.ts';
+import {
+  implicitStep,
+  type ImplicitStepOptions,
+  type StepResult,
+  type StepWorkspace,
+  type SurfaceCondition,
+} from './implicitStep.ts';
+
+/** Step-size controls. Every default is our assumption, tuned on the tests in test/engine. */
+export interface StepControlOptions extends ImplicitStepOptions {
+  /** Shortest step before the run is declared failed, s; default 1e-3. */
+  minStepS?: number;
+  /** Longest step, s; default 900 (15 min). */
+  maxStepS?: number;
+  /** Step growth after an easy step (<= `easyIterations`); default 1.5. */
+  growthFactor?: number;
+  /** Iterations at or below which a step counts as easy; default 6. */
+  easyIterations?: number;
+  /** Step reduction after a failed step; default 0.3. */
+  cutFactor?: number;
+  /**
+   * Longest step as a fraction of the time elapsed since `timeOriginS`; default Infinity (no
+   * limit). Diffusion from a sudden boundary change needs short steps early: a fraction of
+   * about 0.005 keeps backward Euler within 0.5 % of the plane-sheet series (test/engine).
+   */
+  maxStepFractionOfElapsed?: number;
+  /** Origin of the elapsed time for `maxStepFractionOfElapsed`, s; default 0. */
+  timeOriginS?: number;
+}
+
+/** The transport part of an element's state: plain numbers and typed arrays only. */
+export interface TransportState {
+  /** Model time, s since placement. */
+  timeS: number;
+  /** Liquid pressure per cell, Pa. */
+  pressurePa: Float64Array;
+  /** Step the controller will try next, s. */
+  nextStepS: number;
+  /** Water that entered through the surface since placement, m (negative: net drying). */
+  surfaceInflowM: number;
+  /** Water released by the storage term since placement, m (physics.md section 3 asks for it). */
+  storageWaterM: number;
+  /** Sum of the absolute per-step mass defects, m. */
+  massDefectM: number;
+  acceptedSteps: number;
+  rejectedSteps: number;
+}
+
+/** Raised when a step fails even at the shortest allowed step: the run cannot continue. */
+export class EngineConvergenceError extends Error {
+  readonly timeS: number;
+  constructor(timeS: number, stepS: number) {
+    super(
+      `moisture transport did not converge at model time ${(timeS / 3600).toFixed(4)} h ` +
+        `even with a step of ${stepS} s`,
+    );
+    this.name = 'EngineConvergenceError';
+    this.timeS = timeS;
+  }
+}
+
+/**
+ * Advances `state` in place to `targetTimeS` in adaptive backward-Euler steps. The surface
+ * condition of each step is asked for at the step's end time (backward Euler). `onStep` runs
+ * after every accepted step with the step length, before the next one is tried (the element
+ * model updates hydration, temperature and pore refinement there).
+ *
+ * Throws {@link EngineConvergenceError} only when a step fails at `minStepS`. A target at or
+ * before the current time does nothing.
+ */
+export function advanceTransport(
+  grid: DepthGrid,
+  hydraulics: CellHydraulics,
+  workspace: StepWorkspace,
+  state: TransportState,
+  targetTimeS: number,
+  surfaceAt: (timeS: number) => SurfaceCondition,
+  options: StepControlOptions = {},
+  onStep?: (stepS: number, result: StepResult) => void,
+): void {
+  const minStepS = options.minStepS ?? 1e-3;
+  const maxStepS = options.maxStepS ?? 900;
+  const growthFactor = options.growthFactor ?? 1.5;
+  const easyIterations = options.easyIterations ?? 6;
+  const cutFactor = options.cutFactor ?? 0.3;
+  const elapsedFraction = options.maxStepFractionOfElapsed ?? Number.POSITIVE_INFINITY;
+  const timeOriginS = options.timeOriginS ?? 0;
+  const next = new Float64Array(grid.cellCount);
+  while (state.timeS < targetTimeS) {
+    const remaining = targetTimeS - state.timeS;
+    const elapsedLimitS = Math.max(minStepS, elapsedFraction * (state.timeS - timeOriginS));
+    const plannedS = Math.min(state.nextStepS, maxStepS, elapsedLimitS);
+    // Avoid leaving a sliver shorter than a tenth of a step before the target.
+    const stepS =
+      plannedS >= remaining || remaining - plannedS < 0.1 * plannedS ? remaining : plannedS;
+    const endS = state.timeS + stepS;
+    const result = implicitStep(
+      grid,
+      hydraulics,
+      workspace,
+      state.pressurePa,
+      next,
+      stepS,
+      surfaceAt(endS),
+      options,
+    );
+    if (!result.converged) {
+      state.rejectedSteps += 1;
+      state.nextStepS = stepS * cutFactor;
+      if (state.nextStepS < minStepS) throw new EngineConvergenceError(state.timeS, stepS);
+      continue;
+    }
+    state.pressurePa.set(next);
+    state.timeS = stepS === remaining ? targetTimeS : endS;
+    state.surfaceInflowM += result.surfaceInflowM;
+    state.storageWaterM += result.storageWaterM;
+    state.massDefectM += Math.abs(result.massDefectM);
+    state.acceptedSteps += 1;
+    // A step shortened only to land on the target keeps the controller's plan.
+    if (stepS >= plannedS) {
+      const proposed = result.iterations <= easyIterations ? stepS * growthFactor : stepS;
+      state.nextStepS = Math.max(minStepS, Math.min(proposed, maxStepS));
+    }
+    onStep?.(stepS, result);
+  }
+}
