@@ -8,3 +8,4 @@ export * from './curingMeasures.ts';
 export * from './concreteClass.ts';
 export * from './maturity.ts';
 export * from './hydration.ts';
+export * from './strengthDevelopment.ts';
