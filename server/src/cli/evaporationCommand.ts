@@ -10,6 +10,10 @@ import {
   unoEvaporationRateKgM2h,
 } from '../physics/evaporation.ts';
 import { OPEN_TERRAIN_ROUGHNESS_LENGTH_M, windSpeedAtUnoHeight } from '../physics/windProfile.ts';
+import {
+  DEFAULT_EVAPORATION_PRECAUTION_OPTIONS,
+  evaporationPrecautionVerdict,
+} from '../physics/precautions.ts';
 import type { CommandDefinition } from './commandDefinition.ts';
 import type { NumberRule } from './flags.ts';
 import { formatNumber } from './output.ts';
@@ -51,6 +55,11 @@ export const evaporationCommand: CommandDefinition = {
       flags: '--roughness-length <m>',
       description: `terrain roughness length for the wind profile, m (default ${OPEN_TERRAIN_ROUGHNESS_LENGTH_M} m, open terrain, WMO-No. 8)`,
     },
+    {
+      flags: '--sensitive-mix',
+      description:
+        'mix with silica fume or low w/c: halve the precaution threshold (ACI 305R, about half)',
+    },
   ],
   example: 'evaporation --air-temp 31 --concrete-temp 34 --rh 35 --wind 18 --wind-height 10',
   run(flags) {
@@ -91,7 +100,15 @@ export const evaporationCommand: CommandDefinition = {
       windKmH: windAt05mKmH,
     });
     const band = evaporationEstimateBand(evaporationKgM2h);
-    const verdict = precautionVerdict(evaporationKgM2h);
+    const sensitiveMix = flags.switch('--sensitive-mix');
+    const verdict = evaporationPrecautionVerdict(evaporationKgM2h, {
+      ...DEFAULT_EVAPORATION_PRECAUTION_OPTIONS,
+      sensitiveMix,
+    });
+    const precautionsNeeded = verdict.verdict === 'precautions-needed';
+    const verdictWords = precautionsNeeded
+      ? 'take precautions against plastic shrinkage cracking'
+      : 'below the precaution threshold';
 
     const notes: string[] = [];
     if (windHeightGiven === undefined) {
@@ -135,8 +152,9 @@ export const evaporationCommand: CommandDefinition = {
         evaporationHighKgM2h: band.high,
         uncertaintyPercent,
         precautionThresholdKgM2h: verdict.thresholdKgM2h,
-        precautionsNeeded: verdict.precautionsNeeded,
-        verdict: verdict.words,
+        sensitiveMix,
+        precautionsNeeded,
+        verdict: verdict.verdict,
         method:
           'Uno (1998) metric formula; wind height by the log profile; band after Hover (2006); threshold ACI 305R',
         notes,
@@ -160,8 +178,12 @@ export const evaporationCommand: CommandDefinition = {
               `${formatNumber(band.low, 2)} to ${formatNumber(band.high, 2)}`,
               'kg/m2/h',
             ],
-            ['ACI 305R precaution threshold', formatNumber(verdict.thresholdKgM2h, 2), 'kg/m2/h'],
-            ['verdict', verdict.words, ''],
+            [
+              `ACI 305R precaution threshold${sensitiveMix ? ' (halved: sensitive mix)' : ''}`,
+              formatNumber(verdict.thresholdKgM2h, 2),
+              'kg/m2/h',
+            ],
+            ['verdict', verdictWords, ''],
           ],
         },
       ],
@@ -169,20 +191,3 @@ export const evaporationCommand: CommandDefinition = {
     };
   },
 };
-
-/** Placeholder until risk.ts lands. */
-function precautionVerdict(evaporationKgM2h: number): {
-  thresholdKgM2h: number;
-  precautionsNeeded: boolean;
-  words: string;
-} {
-  const thresholdKgM2h = 1.0;
-  const precautionsNeeded = evaporationKgM2h >= thresholdKgM2h;
-  return {
-    thresholdKgM2h,
-    precautionsNeeded,
-    words: precautionsNeeded
-      ? 'take precautions against plastic shrinkage cracking'
-      : 'below the precaution threshold',
-  };
-}

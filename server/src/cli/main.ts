@@ -36,20 +36,22 @@ export const EXIT_FAILURE = 1;
  * @param argv arguments, e.g. `['evaporation', '--air-temp', '30', ...]`
  * @param streams output sinks (default: process stdout / stderr)
  * @param context working directory for relative file paths (default: `process.cwd()`)
+ * @param commands the commands offered (default: the registry of commands.ts)
  */
 export async function main(
   argv: readonly string[],
   streams: CliStreams = PROCESS_STREAMS,
   context: CommandContext = { cwd: process.cwd() },
+  commands: readonly CommandDefinition[] = COMMANDS,
 ): Promise<number> {
   if (streams === PROCESS_STREAMS) ignoreClosedPipe();
   let exitCode = 0;
-  const program = buildProgram(streams, context, (code) => (exitCode = code));
+  const program = buildProgram(commands, streams, context, (code) => (exitCode = code));
   try {
     await program.parseAsync([...argv], { from: 'user' });
     return exitCode;
   } catch (error) {
-    const invoked = COMMANDS.find((definition) => definition.name === argv[0]);
+    const invoked = commands.find((definition) => definition.name === argv[0]);
     return reportError(
       error,
       streams,
@@ -69,6 +71,7 @@ function ignoreClosedPipe(): void {
 }
 
 function buildProgram(
+  commands: readonly CommandDefinition[],
   streams: CliStreams,
   context: CommandContext,
   setExitCode: (code: number) => void,
@@ -86,7 +89,7 @@ function buildProgram(
     })
     .showSuggestionAfterError(true)
     .helpCommand(false);
-  for (const definition of COMMANDS) addCommand(program, definition, streams, context, setExitCode);
+  for (const definition of commands) addCommand(program, definition, streams, context, setExitCode);
   return program;
 }
 

@@ -1,0 +1,146 @@
+/**
+ * The CLI framework: exit codes, one-line messages, help, and the command registry. Spawns the
+ * real bin for what a user sees; calls main() in-process with a stand-in command for the paths
+ * no real command should take (a fault of the tool, exit code 1).
+ */
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import type { CommandDefinition } from '../../server/src/cli/commandDefinition.ts';
+import { COMMANDS } from '../../server/src/cli/commands.ts';
+import { main } from '../../server/src/cli/main.ts';
+import { CAUTION } from '../../server/src/cli/output.ts';
+import { fixtureFolder, isOneLine, runCli, type FixtureFolder } from './_runCli.ts';
+
+const EVAPORATION = ['evaporation', '--air-temp', '25', '--concrete-temp', '27', '--rh', '50'];
+
+describe.concurrent('meniscus (spawned bin)', () => {
+  it('--help lists every registered command and exits 0', async () => {
+    const run = await runCli(['--help']);
+    expect(run.code).toBe(0);
+    for (const command of COMMANDS) expect(run.stdout).toContain(command.name);
+  });
+
+  it.each(COMMANDS.map((command) => [command.name]))(
+    '%s --help shows usage, the --json flag and an example, exit 0',
+    async (name) => {
+      const run = await runCli([name, '--help']);
+      expect(run.code).toBe(0);
+      expect(run.stdout).toContain(`Usage: meniscus ${name}`);
+      expect(run.stdout).toContain('--json');
+      expect(run.stdout).toContain(`meniscus ${name} --`);
+    },
+  );
+
+  // Each kind of bad invocation: exit 2 and one line on stderr naming the culprit.
+  it.each([
+    ['no command at all', [], 'Usage: meniscus'],
+    ['an unknown command', ['evaporate'], "unknown command 'evaporate'"],
+    [
+      'an unknown flag',
+      [...EVAPORATION, '--wind', '10', '--gust', '20'],
+      "unknown option '--gust'",
+    ],
+    ['a missing required flag', EVAPORATION, "required option '--wind <kmh>' not specified"],
+    ['a flag without its value', [...EVAPORATION, '--wind'], "'--wind <kmh>' argument missing"],
+    ['an extra argument', [...EVAPORATION, '--wind', '10', 'now'], 'too many arguments'],
+    [
+      'a value that is not a number',
+      [...EVAPORATION.slice(0, 5), '--rh', 'dry', '--wind', '10'],
+      '--rh must be a number (percent): got "dry"',
+    ],
+    [
+      'a hexadecimal number',
+      [...EVAPORATION, '--wind', '0x10'],
+      '--wind must be a number (km/h): got "0x10"',
+    ],
+    [
+      'an out-of-range value',
+      [...EVAPORATION.slice(0, 5), '--rh', '140', '--wind', '10'],
+      '--rh must be between 0 and 100 (percent): got 140',
+    ],
+  ] as const)('%s: exit 2 and a one-line message', async (_case, args, expected) => {
+    const run = await runCli(args);
+    expect(run.code).toBe(2);
+    expect(run.stdout).toBe('');
+    expect(run.stderr).toContain(expected);
+    // `meniscus` alone prints the overview help to stderr; every other case is one line.
+    if (args.length > 0) expect(isOneLine(run.stderr)).toBe(true);
+  });
+
+  it('an error names the command whose help to read', async () => {
+    const run = await runCli(EVAPORATION);
+    expect(run.stderr).toContain('see meniscus evaporation --help');
+  });
+});
+
+describe('main() in-process with stand-in commands', () => {
+  let folder: FixtureFolder;
+  beforeAll(() => {
+    folder = fixtureFolder();
+  });
+  afterAll(() => folder.remove());
+
+  const capture = () => {
+    const out = { stdout: '', stderr: '' };
+    return {
+      out,
+      streams: {
+        stdout: (text: string) => void (out.stdout += text),
+        stderr: (text: string) => void (out.stderr += text),
+      },
+    };
+  };
+
+  const echo: CommandDefinition = {
+    name: 'echo',
+    summary: 'reports its flag',
+    flags: [{ flags: '--depth <mm>', description: 'a depth, mm', required: true }],
+    example: 'echo --depth 3',
+    run: (flags) => {
+      const depthMm = flags.number('--depth', { unit: 'mm', min: 0, max: 100 });
+      return {
+        json: { depthMm },
+        tables: [{ title: 'Echo', rows: [['depth', String(depthMm), 'mm']] }],
+      };
+    },
+  };
+  const broken: CommandDefinition = {
+    name: 'broken',
+    summary: 'fails like a bug would',
+    flags: [],
+    example: 'broken',
+    run: () => {
+      throw new TypeError('cannot read properties of undefined\n  at somewhere');
+    },
+  };
+
+  it('a command added to the registry gets --json, the caution and the table output', async () => {
+    const json = capture();
+    expect(
+      await main(['echo', '--depth', '3', '--json'], json.streams, { cwd: folder.path }, [echo]),
+    ).toBe(0);
+    expect(JSON.parse(json.out.stdout)).toEqual({ depthMm: 3, caution: CAUTION });
+    const text = capture();
+    expect(await main(['echo', '--depth', '3'], text.streams, { cwd: folder.path }, [echo])).toBe(
+      0,
+    );
+    expect(text.out.stdout).toContain('Echo');
+    expect(text.out.stdout).toMatch(/depth\s*│\s*3\s*│\s*mm/);
+    expect(text.out.stdout).toContain('Caution: estimates only');
+  });
+
+  it('a fault of the tool exits 1 with one line on stderr, not a stack', async () => {
+    const run = capture();
+    expect(await main(['broken'], run.streams, { cwd: folder.path }, [broken])).toBe(1);
+    expect(run.out.stdout).toBe('');
+    expect(isOneLine(run.out.stderr)).toBe(true);
+    expect(run.out.stderr).toContain('internal error: cannot read properties of undefined');
+  });
+
+  it('a bad flag of a stand-in command exits 2 naming flag, rule and value', async () => {
+    const run = capture();
+    expect(await main(['echo', '--depth', '-1'], run.streams, { cwd: folder.path }, [echo])).toBe(
+      2,
+    );
+    expect(run.out.stderr).toBe('meniscus: --depth must be between 0 and 100 (mm): got -1\n');
+  });
+});
