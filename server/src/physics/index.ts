@@ -9,3 +9,4 @@ export * from './concreteClass.ts';
 export * from './maturity.ts';
 export * from './hydration.ts';
 export * from './strengthDevelopment.ts';
+export * from './strengthMaturityFit.ts';
