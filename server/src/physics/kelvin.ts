@@ -34,7 +34,11 @@ export function kelvinCoefficientPa(
  *   probe reading past 100 %) gives p > 0, which callers at the edge usually clamp; h = 0 gives
  *   -Infinity; h < 0 or NaN gives NaN.
  * @param temperatureK T in K.
- * @param liquidDensityKgPerM3 rho_w in kg/m3; default waterDensityKgPerM3(T) at 101325 Pa.
+ * @param liquidDensityKgPerM3 rho_w in kg/m3; default waterDensityKgPerM3(T) at 101325 Pa, which
+ *   is NaN outside 253.15..623.15 K (so is the result then, unless a density is given). The
+ *   density at atmospheric pressure stands for the liquid under tension too (incompressible
+ *   liquid, as the Kelvin equation assumes; our estimate of the error is about 1 % at -50 MPa,
+ *   half the density change that the compressibility of water, about 4.5e-10 1/Pa, gives there).
  * @returns p in Pa (h = 0.9 at 20 degC: about -14.2 MPa).
  * Source: Kelvin equation, Thomson (1871); physics.md section 2.
  */
