@@ -16,3 +16,6 @@ export * from './waterDensity.ts';
 export * from './waterViscosity.ts';
 export * from './dewPoint.ts';
 export * from './kelvin.ts';
+export * from './riskPhase.ts';
+export * from './utilization.ts';
+export * from './precautions.ts';
