@@ -1,0 +1,199 @@
+/**
+ * Tabulation of a pore-size distribution on a uniform grid in u = ln D, shared by the fast forms
+ * of retention, equivalent pore pressure and capillary-bundle permeability. The grid holds the
+ * truncated, renormalised distribution Fhat(u) = F(e^u) / F(D_max) (1 above D_max) and its exact
+ * derivative; values between nodes come from cubic Hermite pieces with those slopes, limited to
+ * stay monotone (Fritsch and Carlson 1980).
+ */
+import type { PoreSizeDistribution } from './retentionCurve.ts';
+import {
+  maxPoreDiameterM,
+  poreCumulativeFraction,
+  poreDiameterAtFractionM,
+  poreTableKnots,
+  poreVolumeDensityPerLogDiameter,
+} from './poreSizeDistribution.ts';
+import {
+  hermiteDerivative,
+  hermiteValue,
+  limitSlopesMonotone,
+  lowerIndex,
+  solveIncreasing,
+} from './_poreNumerics.ts';
+
+/** Fraction below which the unbounded forms leave the grid and use the exact functions. */
+const GRID_BOTTOM_FRACTION = 1e-10;
+const MAX_NODES = 60_000;
+
+export interface PoreGrid {
+  readonly psd: PoreSizeDistribution;
+  /** F(D_max) before renormalisation. */
+  readonly topFraction: number;
+  /** ln D_max. */
+  readonly logMaxDiameter: number;
+  /** ln D of the first node. */
+  readonly logMinDiameter: number;
+  /** Lower end of the support in ln D (-Infinity for the unbounded forms). */
+  readonly logSupportBottom: number;
+  readonly step: number;
+  /** Node positions u_i, Fhat_i and dFhat/du_i (limited). */
+  readonly logDiameters: number[];
+  readonly fractions: number[];
+  readonly slopes: number[];
+  /** Breakpoints of the distribution in u (table knots) for quadrature. */
+  readonly breakpoints: number[];
+}
+
+/** Exact truncated, renormalised cumulative fraction at u = ln D. */
+export function exactFraction(grid: PoreGrid, u: number): number {
+  if (u >= grid.logMaxDiameter) return 1;
+  return poreCumulativeFraction(grid.psd, Math.exp(u)) / grid.topFraction;
+}
+
+/** Exact ln D at which the truncated, renormalised fraction equals `fraction` (0..1). */
+export function exactLogDiameter(grid: PoreGrid, fraction: number): number {
+  if (fraction >= 1) return grid.logMaxDiameter;
+  if (fraction <= 0) return grid.logSupportBottom;
+  return Math.log(poreDiameterAtFractionM(grid.psd, fraction * grid.topFraction));
+}
+
+function gridStep(psd: PoreSizeDistribution): number {
+  switch (psd.kind) {
+    case 'lognormal':
+      return Math.min(0.01, ...psd.modes.map((mode) => Math.log(mode.geometricSd) / 20));
+    case 'table': {
+      const knots = poreTableKnots(psd.points).logDiameters;
+      let smallest = 0.01;
+      for (let k = 1; k < knots.length; k++)
+        smallest = Math.min(smallest, ((knots[k] as number) - (knots[k - 1] as number)) / 4);
+      return smallest;
+    }
+    case 'van-genuchten':
+      return Math.min(0.01, 0.2 / psd.n);
+  }
+}
+
+/**
+ * Builds the grid for `psd` (cost: a few thousand evaluations of F). With `withNodes` false only
+ * the ends are computed (enough for the exact functions).
+ */
+export function buildPoreGrid(psd: PoreSizeDistribution, withNodes = true): PoreGrid {
+  const maxDiameterM = maxPoreDiameterM(psd);
+  const logMaxDiameter = Math.log(maxDiameterM);
+  const topFraction = poreCumulativeFraction(psd, maxDiameterM);
+  const breakpoints = psd.kind === 'table' ? [...poreTableKnots(psd.points).logDiameters] : [];
+  const logSupportBottom =
+    psd.kind === 'table' ? Math.log(poreDiameterAtFractionM(psd, 0)) : Number.NEGATIVE_INFINITY;
+  const logMinDiameter =
+    psd.kind === 'table'
+      ? logSupportBottom
+      : Math.log(poreDiameterAtFractionM(psd, GRID_BOTTOM_FRACTION * topFraction));
+  let step = gridStep(psd);
+  let intervals = Math.ceil((logMaxDiameter - logMinDiameter) / step);
+  if (!(intervals >= 1)) intervals = 1;
+  if (intervals > MAX_NODES) intervals = MAX_NODES;
+  step = (logMaxDiameter - logMinDiameter) / intervals;
+  const logDiameters: number[] = [];
+  const fractions: number[] = [];
+  const slopes: number[] = [];
+  for (let i = 0; i <= (withNodes ? intervals : -1); i++) {
+    const u = i === intervals ? logMaxDiameter : logMinDiameter + i * step;
+    const diameterM = Math.exp(u);
+    logDiameters.push(u);
+    fractions.push(
+      i === intervals ? 1 : Math.min(1, poreCumulativeFraction(psd, diameterM) / topFraction),
+    );
+    slopes.push(poreVolumeDensityPerLogDiameter(psd, diameterM) / topFraction);
+  }
+  limitSlopesMonotone(logDiameters, fractions, slopes);
+  return {
+    psd,
+    topFraction,
+    logMaxDiameter,
+    logMinDiameter,
+    logSupportBottom,
+    step,
+    logDiameters,
+    fractions,
+    slopes,
+    breakpoints,
+  };
+}
+
+/** Node interval index and local coordinate of u on the uniform grid (u inside the grid). */
+export function gridLocate(grid: PoreGrid, u: number): { index: number; t: number } {
+  const last = grid.logDiameters.length - 2;
+  const index = Math.min(last, Math.max(0, Math.floor((u - grid.logMinDiameter) / grid.step)));
+  const start = grid.logDiameters[index] as number;
+  const width = (grid.logDiameters[index + 1] as number) - start;
+  return { index, t: (u - start) / width };
+}
+
+/** Hermite interpolation of node values/slopes at u (u inside the grid). */
+export function gridInterpolate(
+  grid: PoreGrid,
+  values: readonly number[],
+  slopes: readonly number[],
+  u: number,
+): number {
+  const { index, t } = gridLocate(grid, u);
+  const width = (grid.logDiameters[index + 1] as number) - (grid.logDiameters[index] as number);
+  return hermiteValue(
+    t,
+    width,
+    values[index] as number,
+    values[index + 1] as number,
+    slopes[index] as number,
+    slopes[index + 1] as number,
+  );
+}
+
+/** Fast Fhat(u): grid inside, exact outside. */
+export function gridFraction(grid: PoreGrid, u: number): number {
+  if (u >= grid.logMaxDiameter) return 1;
+  if (u < grid.logMinDiameter) return grid.psd.kind === 'table' ? 0 : exactFraction(grid, u);
+  return gridInterpolate(grid, grid.fractions, grid.slopes, u);
+}
+
+/** Fast dFhat/du: derivative of the Hermite piece inside the grid, exact outside. */
+export function gridDensity(grid: PoreGrid, u: number): number {
+  if (u >= grid.logMaxDiameter) return 0;
+  if (u < grid.logMinDiameter) {
+    return grid.psd.kind === 'table'
+      ? 0
+      : poreVolumeDensityPerLogDiameter(grid.psd, Math.exp(u)) / grid.topFraction;
+  }
+  const { index, t } = gridLocate(grid, u);
+  const width = (grid.logDiameters[index + 1] as number) - (grid.logDiameters[index] as number);
+  const f = grid.fractions;
+  const d = grid.slopes;
+  return hermiteDerivative(
+    t,
+    width,
+    f[index] as number,
+    f[index + 1] as number,
+    d[index] as number,
+    d[index + 1] as number,
+  );
+}
+
+/** Fast inverse: ln D with Fhat = fraction (0 < fraction < 1), smallest such u on flat parts. */
+export function gridLogDiameter(grid: PoreGrid, fraction: number): number {
+  const f = grid.fractions;
+  if (fraction < (f[0] as number) || fraction <= 0) return exactLogDiameter(grid, fraction);
+  if (fraction >= 1) return grid.logMaxDiameter;
+  // first node with f >= fraction
+  let index = lowerIndex(f, fraction);
+  while (index > 0 && (f[index] as number) >= fraction) index--;
+  while (index < f.length - 1 && (f[index + 1] as number) < fraction) index++;
+  const low = grid.logDiameters[index] as number;
+  const high = grid.logDiameters[Math.min(index + 1, f.length - 1)] as number;
+  if ((f[index] as number) >= fraction) return low;
+  return solveIncreasing(
+    (u) => gridInterpolate(grid, grid.fractions, grid.slopes, u) - fraction,
+    low,
+    high,
+    1e-12 * Math.max(1, Math.abs(low)),
+    (u) => gridDensity(grid, u),
+  );
+}
