@@ -61,8 +61,8 @@ async function connect(username: string | undefined): Promise<MqttClient> {
  */
 async function publishReasonCode(client: MqttClient, topic: string): Promise<number> {
   try {
-    const packet = await client.publishAsync(topic, '{"v":1}', { qos: 1 });
-    return packet?.reasonCode ?? 0;
+    await client.publishAsync(topic, '{"v":1}', { qos: 1 });
+    return 0;
   } catch (error) {
     return (error as { code?: number }).code ?? -1;
   }
