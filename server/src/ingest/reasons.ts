@@ -16,6 +16,8 @@ export const REASON_CODES = [
   'time-in-future',
   'time-before-run',
   'duplicate',
+  /** Validation itself failed (a bug): the message is kept so nothing is lost. */
+  'internal-error',
 ] as const;
 
 export type ReasonCode = (typeof REASON_CODES)[number];

@@ -1,0 +1,69 @@
+/**
+ * Starts Debian's Mosquitto on a free port with its own config in a temporary folder
+ * (dependencies.md: `max_queued_messages 0`, since the default of 1000 drops QoS 1 messages to a
+ * slow subscriber). Started as root it drops to the `mosquitto` user, so the folder is made
+ * world-readable and, with persistence, world-writable.
+ */
+import { spawn } from 'node:child_process';
+import type { ChildProcess } from 'node:child_process';
+import { chmodSync, mkdtempSync, rmSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { freePort, waitForPort } from './freePort.ts';
+
+export const MOSQUITTO_BINARY = '/usr/sbin/mosquitto';
+
+export interface Mosquitto {
+  port: number;
+  url: string;
+  /** Stops it (SIGTERM, which also saves persistence) and waits for the exit. */
+  stop(): Promise<void>;
+  /** Starts it again on the same port with the same files. */
+  start(): Promise<void>;
+  /** Stops it and removes its folder. */
+  dispose(): Promise<void>;
+}
+
+export async function startMosquitto(options: { persistence?: boolean } = {}): Promise<Mosquitto> {
+  const dir = mkdtempSync(join(tmpdir(), 'meniscus-mosquitto-'));
+  chmodSync(dir, 0o777);
+  const port = await freePort();
+  const lines = [
+    `listener ${port} 127.0.0.1`,
+    'allow_anonymous true',
+    'max_queued_messages 0',
+    'log_dest stdout',
+    'log_type error',
+    'log_type warning',
+  ];
+  if (options.persistence === true) {
+    lines.push('persistence true', `persistence_location ${dir}/`, 'autosave_interval 1');
+  } else lines.push('persistence false');
+  const configFile = join(dir, 'mosquitto.conf');
+  writeFileSync(configFile, `${lines.join('\n')}\n`);
+  chmodSync(configFile, 0o644);
+  let child: ChildProcess | null = null;
+  const start = async () => {
+    child = spawn(MOSQUITTO_BINARY, ['-c', configFile], { stdio: ['ignore', 'ignore', 'inherit'] });
+    await waitForPort(port);
+  };
+  const stop = async () => {
+    const running = child;
+    child = null;
+    if (running === null || running.exitCode !== null) return;
+    const exited = new Promise((resolve) => running.once('exit', resolve));
+    running.kill('SIGTERM');
+    await exited;
+  };
+  await start();
+  return {
+    port,
+    url: `mqtt://127.0.0.1:${port}`,
+    start,
+    stop,
+    async dispose() {
+      await stop();
+      rmSync(dir, { recursive: true, force: true });
+    },
+  };
+}
