@@ -5,5 +5,10 @@
 import type { CommandDefinition } from './commandDefinition.ts';
 import { evaporationCommand } from './evaporationCommand.ts';
 import { maturityCommand } from './maturityCommand.ts';
+import { strengthCommand } from './strengthCommand.ts';
 
-export const COMMANDS: readonly CommandDefinition[] = [evaporationCommand, maturityCommand];
+export const COMMANDS: readonly CommandDefinition[] = [
+  evaporationCommand,
+  maturityCommand,
+  strengthCommand,
+];

@@ -133,7 +133,7 @@ export class FlagReader {
   choice<T extends string>(flag: string, choices: readonly T[], fallback?: T): T {
     const text = fallback === undefined ? this.string(flag) : this.optionalString(flag);
     if (text === undefined) return fallback as T;
-    const found = choices.find((choice) => choice === text.trim().toLowerCase());
+    const found = choices.find((choice) => choice.toLowerCase() === text.trim().toLowerCase());
     if (found === undefined) {
       throw new UsageError(flag, `must be one of ${choices.join(', ')}`, quoteReceived(text));
     }
