@@ -6,7 +6,7 @@
 import { describe, expect, it } from 'vitest';
 import { unoEvaporationRateKgM2h } from '../../server/src/physics/evaporation.ts';
 import { windSpeedAtUnoHeight } from '../../server/src/physics/windProfile.ts';
-import { isOneLine, runCli, runCliJson } from './_runCli.ts';
+import { callCli, isOneLine, runCli, runCliJson } from './_runCli.ts';
 
 /** Uno (1998), ACI Materials Journal 95(4), metric form, written out independently. */
 function unoFormula(airC: number, concreteC: number, rhFraction: number, windKmH: number): number {
@@ -52,7 +52,7 @@ describe.concurrent('meniscus evaporation --json', () => {
   ])(
     'matches the physics library for %s/%s degC, rh %s percent, wind %s km/h',
     async (air, concrete, rh, wind) => {
-      const { json } = await runCliJson(weather(air, concrete, rh, wind));
+      const { json } = await runCliJson(weather(air, concrete, rh, wind), undefined, callCli);
       const expected = unoEvaporationRateKgM2h({
         airTemperatureC: air,
         concreteTemperatureC: concrete,
@@ -66,7 +66,11 @@ describe.concurrent('meniscus evaporation --json', () => {
   );
 
   it('brings a 10 m mast wind down to 0.5 m by the log profile (z0 = 0.03 m)', async () => {
-    const { json } = await runCliJson([...weather(31, 34, 35, 18), '--wind-height', '10']);
+    const { json } = await runCliJson(
+      [...weather(31, 34, 35, 18), '--wind-height', '10'],
+      undefined,
+      callCli,
+    );
     // u(0.5) = u(10) ln(0.5 / 0.03) / ln(10 / 0.03): the log law of the surface layer.
     const at05 = (18 * Math.log(0.5 / 0.03)) / Math.log(10 / 0.03);
     expect(json['windAt05mKmH']).toBeCloseTo(at05, 10);
@@ -78,25 +82,27 @@ describe.concurrent('meniscus evaporation --json', () => {
   });
 
   it('uses a rougher terrain when --roughness-length is given', async () => {
-    const { json } = await runCliJson([
-      ...weather(31, 34, 35, 18),
-      '--wind-height',
-      '10',
-      '--roughness-length',
-      '0.3',
-    ]);
+    const { json } = await runCliJson(
+      [...weather(31, 34, 35, 18), '--wind-height', '10', '--roughness-length', '0.3'],
+      undefined,
+      callCli,
+    );
     expect(json['windAt05mKmH']).toBeCloseTo((18 * Math.log(0.5 / 0.3)) / Math.log(10 / 0.3), 10);
   });
 
   it('halves the threshold for a sensitive mix (silica fume, low w/c)', async () => {
-    const { json } = await runCliJson([...weather(31, 34, 35, 8), '--sensitive-mix']);
+    const { json } = await runCliJson(
+      [...weather(31, 34, 35, 8), '--sensitive-mix'],
+      undefined,
+      callCli,
+    );
     expect(json['precautionThresholdKgM2h']).toBe(0.5);
     expect(json['evaporationKgM2h']).toBeCloseTo(unoFormula(31, 34, 0.35, 8), 12); // 0.82
     expect(json['precautionsNeeded']).toBe(true);
   });
 
   it('reports zero, not condensation, when the air is warmer and damper than the surface', async () => {
-    const { json } = await runCliJson(weather(25, 15, 95, 10));
+    const { json } = await runCliJson(weather(25, 15, 95, 10), undefined, callCli);
     expect(json['evaporationKgM2h']).toBe(0);
     expect(json['precautionsNeeded']).toBe(false);
   });
@@ -148,7 +154,7 @@ describe.concurrent('meniscus evaporation with bad flags', () => {
       "required option '--air-temp <C>' not specified",
     ],
   ])('%s: exit 2, one line', async (_case, args, message) => {
-    const run = await runCli(args);
+    const run = await callCli(args);
     expect(run.code).toBe(2);
     expect(run.stderr).toContain(message);
     expect(isOneLine(run.stderr)).toBe(true);

@@ -8,7 +8,7 @@ import type { CommandDefinition } from '../../server/src/cli/commandDefinition.t
 import { COMMANDS } from '../../server/src/cli/commands.ts';
 import { main } from '../../server/src/cli/main.ts';
 import { CAUTION } from '../../server/src/cli/output.ts';
-import { fixtureFolder, isOneLine, runCli, type FixtureFolder } from './_runCli.ts';
+import { callCli, fixtureFolder, isOneLine, runCli, type FixtureFolder } from './_runCli.ts';
 
 const EVAPORATION = ['evaporation', '--air-temp', '25', '--concrete-temp', '27', '--rh', '50'];
 
@@ -64,6 +64,17 @@ describe.concurrent('meniscus (spawned bin)', () => {
     expect(run.stderr).toContain(expected);
     // `meniscus` alone prints the overview help to stderr; every other case is one line.
     if (args.length > 0) expect(isOneLine(run.stderr)).toBe(true);
+  });
+
+  // The command tests run their long tables in-process through main(); the bin must answer alike.
+  it.each([
+    ['a JSON result', [...EVAPORATION, '--wind', '12', '--json']],
+    ['a table', ['strength', '--class', 'C25/30', '--cement', 'R', '--age-days', '2']],
+    ['a bad value', ['strength', '--class', 'C25/30', '--cement', 'R', '--age-days', '-2']],
+    ['an unknown flag', ['maturity', '--csv', 'x.csv', '--fast']],
+  ])('the spawned bin and main() in-process give the same %s', async (_case, args) => {
+    const [spawned, inProcess] = await Promise.all([runCli(args), callCli(args)]);
+    expect(spawned).toEqual(inProcess);
   });
 
   it('an error names the command whose help to read', async () => {

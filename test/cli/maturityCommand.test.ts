@@ -6,7 +6,14 @@
  */
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { maturityOfSeries } from '../../server/src/physics/maturity.ts';
-import { fixtureFolder, isOneLine, runCli, runCliJson, type FixtureFolder } from './_runCli.ts';
+import {
+  callCli,
+  fixtureFolder,
+  isOneLine,
+  runCli,
+  runCliJson,
+  type FixtureFolder,
+} from './_runCli.ts';
 
 const R = 8.314462618; // J/(mol K), CODATA 2018
 const HOUR_MS = 3_600_000;
@@ -94,12 +101,16 @@ beforeAll(() => {
 });
 afterAll(() => folder.remove());
 
-const maturity = (...args: string[]) => runCliJson(['maturity', ...args], folder.path);
+/** In-process run (see _runCli.ts); the first case below spawns the real bin. */
+const maturity = (...args: string[]) => runCliJson(['maturity', ...args], folder.path, callCli);
 
 describe.concurrent('meniscus maturity --json', () => {
   it('equivalent age equals real age at the reference temperature (ASTM C1074), both methods', async () => {
     for (const method of ['arrhenius', 'nurse-saul']) {
-      const { json } = await maturity('--csv', 'steady20.csv', '--method', method);
+      const { json } = await runCliJson(
+        ['maturity', '--csv', 'steady20.csv', '--method', method],
+        folder.path,
+      );
       expect(json['method']).toBe(method);
       expect(json['equivalentAgeH']).toBeCloseTo(24, 10);
       expect(json['arrheniusEquivalentAgeH']).toBeCloseTo(24, 10);
@@ -244,7 +255,7 @@ describe.concurrent('meniscus maturity with bad input', () => {
     ],
     ['no --csv', [], "required option '--csv <file>' not specified"],
   ])('%s: exit 2 with a one-line message', async (_case, args, message) => {
-    const run = await runCli(['maturity', ...args], folder.path);
+    const run = await callCli(['maturity', ...args], folder.path);
     expect(run.code).toBe(2);
     expect(run.stderr).toContain(message);
     expect(isOneLine(run.stderr)).toBe(true);

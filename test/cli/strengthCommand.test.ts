@@ -10,19 +10,27 @@ import {
   modulusAtAgeGPa,
   tensileStrengthAtAgeMPa,
 } from '../../server/src/physics/strengthDevelopment.ts';
-import { isOneLine, runCli, runCliJson } from './_runCli.ts';
+import { callCli, isOneLine, runCli, runCliJson } from './_runCli.ts';
 
+const strengthArgs = (
+  concreteClass: string,
+  cement: string,
+  ageDays: number,
+  ...more: string[]
+) => [
+  'strength',
+  '--class',
+  concreteClass,
+  '--cement',
+  cement,
+  '--age-days',
+  String(ageDays),
+  ...more,
+];
+
+/** In-process run (see _runCli.ts); the 7-day case below spawns the real bin. */
 const strength = (concreteClass: string, cement: string, ageDays: number, ...more: string[]) =>
-  runCliJson([
-    'strength',
-    '--class',
-    concreteClass,
-    '--cement',
-    cement,
-    '--age-days',
-    String(ageDays),
-    ...more,
-  ]);
+  runCliJson(strengthArgs(concreteClass, cement, ageDays, ...more), undefined, callCli);
 
 /** beta_cc(t) = exp{s [1 - (28/t)^0.5]}, EN 1992-1-1:2004 eq. (3.2), written out. */
 const betaCc = (ageDays: number, s: number) => Math.exp(s * (1 - Math.sqrt(28 / ageDays)));
@@ -51,7 +59,7 @@ describe.concurrent('meniscus strength --json', () => {
   });
 
   it('C30/37 with class N cement at 7 days follows EN 1992-1-1 3.1.2', async () => {
-    const { json } = await strength('C30/37', 'N', 7);
+    const { json } = await runCliJson(strengthArgs('C30/37', 'N', 7));
     const beta = betaCc(7, 0.25); // = exp(-0.25), s = 0.25 for class N, EN 1992-1-1 3.1.2(6)
     const fctm28 = 0.3 * 30 ** (2 / 3); // Table 3.1 formula
     const ecm28 = 22 * (38 / 10) ** 0.3; // Table 3.1 formula
@@ -154,7 +162,7 @@ describe.concurrent('meniscus strength with bad flags', () => {
       "required option '--class <class>' not specified",
     ],
   ])('%s: exit 2 with a one-line message', async (_case, args, message) => {
-    const run = await runCli(['strength', ...args]);
+    const run = await callCli(['strength', ...args]);
     expect(run.code).toBe(2);
     expect(run.stderr).toContain(message);
     expect(isOneLine(run.stderr)).toBe(true);

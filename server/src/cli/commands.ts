@@ -3,6 +3,7 @@
  * command, write one file exporting a `CommandDefinition` and add it here.
  */
 import type { CommandDefinition } from './commandDefinition.ts';
+import { dryingStressCommand } from './dryingStressCommand.ts';
 import { evaporationCommand } from './evaporationCommand.ts';
 import { maturityCommand } from './maturityCommand.ts';
 import { strengthCommand } from './strengthCommand.ts';
@@ -11,4 +12,5 @@ export const COMMANDS: readonly CommandDefinition[] = [
   evaporationCommand,
   maturityCommand,
   strengthCommand,
+  dryingStressCommand,
 ];

@@ -21,6 +21,17 @@ export class UsageError extends Error {
     this.name = 'UsageError';
     this.input = input;
   }
+
+  /**
+   * Wraps a message that an edge validator elsewhere (a zod schema of the physics library) has
+   * already written in the field / rule / value form, e.g. `--psd psd.json lognormal[0].geometricSd
+   * must be greater than 1: got 0.8`.
+   */
+  static fromMessage(input: string, message: string, cause?: unknown): UsageError {
+    const error = new UsageError(input, '', undefined, { cause });
+    error.message = oneLine(message);
+    return error;
+  }
 }
 
 /** Collapses line breaks and runs of white space so a message always fits on one line. */
