@@ -1,0 +1,2 @@
+export * from './detectSilence.ts';
+export * from './detectStuck.ts';
