@@ -148,20 +148,23 @@ export function gridInterpolate(
   );
 }
 
-/** Fast Fhat(u): grid inside, exact outside. */
+/**
+ * Fast Fhat(u): grid inside, exact outside. Tables use their own PCHIP directly (already a
+ * cheap piecewise cubic, and re-interpolating it would blur its knots).
+ */
 export function gridFraction(grid: PoreGrid, u: number): number {
   if (u >= grid.logMaxDiameter) return 1;
-  if (u < grid.logMinDiameter) return grid.psd.kind === 'table' ? 0 : exactFraction(grid, u);
+  if (grid.psd.kind === 'table') return exactFraction(grid, u);
+  if (u < grid.logMinDiameter) return exactFraction(grid, u);
   return gridInterpolate(grid, grid.fractions, grid.slopes, u);
 }
 
 /** Fast dFhat/du: derivative of the Hermite piece inside the grid, exact outside. */
 export function gridDensity(grid: PoreGrid, u: number): number {
   if (u >= grid.logMaxDiameter) return 0;
+  if (grid.psd.kind === 'table') return poreVolumeDensityPerLogDiameter(grid.psd, Math.exp(u));
   if (u < grid.logMinDiameter) {
-    return grid.psd.kind === 'table'
-      ? 0
-      : poreVolumeDensityPerLogDiameter(grid.psd, Math.exp(u)) / grid.topFraction;
+    return poreVolumeDensityPerLogDiameter(grid.psd, Math.exp(u)) / grid.topFraction;
   }
   const { index, t } = gridLocate(grid, u);
   const width = (grid.logDiameters[index + 1] as number) - (grid.logDiameters[index] as number);
@@ -180,7 +183,9 @@ export function gridDensity(grid: PoreGrid, u: number): number {
 /** Fast inverse: ln D with Fhat = fraction (0 < fraction < 1), smallest such u on flat parts. */
 export function gridLogDiameter(grid: PoreGrid, fraction: number): number {
   const f = grid.fractions;
-  if (fraction < (f[0] as number) || fraction <= 0) return exactLogDiameter(grid, fraction);
+  if (grid.psd.kind === 'table' || fraction < (f[0] as number) || fraction <= 0) {
+    return exactLogDiameter(grid, fraction);
+  }
   if (fraction >= 1) return grid.logMaxDiameter;
   // first node with f >= fraction
   let index = lowerIndex(f, fraction);

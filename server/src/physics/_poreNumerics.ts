@@ -89,13 +89,12 @@ export function hermiteValue(
   d0: number,
   d1: number,
 ): number {
-  const oneMinusT = 1 - t;
-  return (
-    (1 + 2 * t) * oneMinusT * oneMinusT * y0 +
-    t * oneMinusT * oneMinusT * h * d0 +
-    t * t * (3 - 2 * t) * y1 +
-    t * t * (t - 1) * h * d1
-  );
+  // Power form about x0: adds small increments to y0, which keeps rounding monotone near nodes.
+  const rise = y1 - y0;
+  const linear = h * d0;
+  const quadratic = 3 * rise - 2 * h * d0 - h * d1;
+  const cubic = h * d0 + h * d1 - 2 * rise;
+  return y0 + t * (linear + t * (quadratic + t * cubic));
 }
 
 /** Derivative d/dx of the cubic Hermite piece at local coordinate t = (x - x0) / h. */

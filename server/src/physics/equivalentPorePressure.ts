@@ -134,7 +134,11 @@ export function equivalentPorePressureCurve(
     }
   }
   limitSlopesMonotone(u, values, slopes);
-  const bottomPa = exactPiAtLogDiameter(grid, laplaceN, grid.logSupportBottom);
+  // Tables start the grid at their support bottom: take pi(0) from the grid so it joins exactly.
+  const bottomPa =
+    grid.psd.kind === 'table'
+      ? (values[0] as number)
+      : exactPiAtLogDiameter(grid, laplaceN, grid.logSupportBottom);
   const atLogDiameter = (logDiameter: number): number => {
     if (logDiameter >= grid.logMaxDiameter) return retention.airEntryPressurePa;
     if (logDiameter < grid.logMinDiameter) return exactPiAtLogDiameter(grid, laplaceN, logDiameter);

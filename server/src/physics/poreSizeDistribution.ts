@@ -247,7 +247,8 @@ function tableInverse(knots: TableKnots, fraction: number): number {
     while (k < last && (y[k + 1] as number) <= 0) k++;
     return Math.exp(x[k] as number);
   }
-  if (k === 0 || (y[k] as number) < target) return Math.exp(x[k] as number);
+  // At a knot value the inverse is the knot itself (the pieces are strictly monotone or constant).
+  if (k === 0 || (y[k] as number) <= target) return Math.exp(x[k] as number);
   const u = solveIncreasing(
     (value) => tableAt(knots, value, false) - target,
     x[k - 1] as number,
