@@ -155,3 +155,69 @@ describe('main() in-process with stand-in commands', () => {
     expect(run.out.stderr).toBe('meniscus: --depth must be between 0 and 100 (mm): got -1\n');
   });
 });
+
+describe('the JSON contract of every command', () => {
+  let folder: FixtureFolder;
+  beforeAll(() => {
+    folder = fixtureFolder();
+    folder.write('log.csv', 'time,temperatureC\n2026-05-06T18:00Z,21\n2026-05-06T20:30Z,26\n');
+    folder.write(
+      'psd.json',
+      '{"lognormal":[{"medianDiameterUm":0.04,"geometricSd":2.5,"volumeFraction":1}]}',
+    );
+    folder.write('profile.csv', 'depthMm,saturation\n0,0.5\n2,0.9\n30,1\n');
+  });
+  afterAll(() => folder.remove());
+
+  /** Unit suffixes of numeric keys (architecture.md: numbers carry the unit in the key). */
+  const UNIT_SUFFIX = /(C|K|Percent|KmH|M|Mm|Um|KgM2h|H|Days|MPa|GPa|JMol|NPerM|CH)$/;
+  /** Numbers without a unit: counts, ratios, fractions, line numbers. */
+  const DIMENSIONLESS = new Set([
+    'samples',
+    'betaCc',
+    'cementCoefficientS',
+    'stressFactor',
+    'biotCoefficient',
+    'poissonRatio',
+    'relaxationFactor',
+    'restraintDegree',
+    'saturation',
+    'fromLine',
+    'toLine',
+  ]);
+
+  function numericKeys(value: unknown, found: string[] = []): string[] {
+    if (Array.isArray(value)) value.forEach((item) => numericKeys(item, found));
+    else if (value !== null && typeof value === 'object') {
+      for (const [key, child] of Object.entries(value)) {
+        if (typeof child === 'number') found.push(key);
+        else numericKeys(child, found);
+      }
+    }
+    return found;
+  }
+
+  it.each([
+    ['evaporation', [...EVAPORATION, '--wind', '10']],
+    ['maturity', ['maturity', '--csv', 'log.csv', '--max-gap', '2']],
+    [
+      'strength',
+      ['strength', '--class', 'C30/37', '--cement', 'N', '--age-days', '3', '--target-fcm', '20'],
+    ],
+    [
+      'drying-stress',
+      ['drying-stress', '--psd', 'psd.json', '--saturation', 'profile.csv', '--mode', 'curl'],
+    ],
+  ])('%s --json: one object, the caution, a unit on every numeric key', async (_name, args) => {
+    const run = await callCli([...args, '--json'], folder.path);
+    expect(run.code).toBe(0);
+    const json = JSON.parse(run.stdout) as Record<string, unknown>;
+    expect(json['caution']).toBe(CAUTION);
+    const keys = numericKeys(json);
+    expect(keys.length).toBeGreaterThan(3);
+    for (const key of keys) {
+      if (!DIMENSIONLESS.has(key))
+        expect(key, `${key} carries no unit suffix`).toMatch(UNIT_SUFFIX);
+    }
+  });
+});
