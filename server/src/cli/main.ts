@@ -45,11 +45,11 @@ export async function main(
   commands: readonly CommandDefinition[] = COMMANDS,
 ): Promise<number> {
   if (streams === PROCESS_STREAMS) ignoreClosedPipe();
-  let exitCode = 0;
-  const program = buildProgram(commands, streams, context, (code) => (exitCode = code));
+  const program = buildProgram(commands, streams, context);
   try {
+    // Without a command commander throws (help on stderr), so reaching the end means success.
     await program.parseAsync([...argv], { from: 'user' });
-    return exitCode;
+    return 0;
   } catch (error) {
     const invoked = commands.find((definition) => definition.name === argv[0]);
     return reportError(
@@ -74,7 +74,6 @@ function buildProgram(
   commands: readonly CommandDefinition[],
   streams: CliStreams,
   context: CommandContext,
-  setExitCode: (code: number) => void,
 ): Command {
   const program = new Command('meniscus')
     .description(
@@ -89,7 +88,7 @@ function buildProgram(
     })
     .showSuggestionAfterError(true)
     .helpCommand(false);
-  for (const definition of commands) addCommand(program, definition, streams, context, setExitCode);
+  for (const definition of commands) addCommand(program, definition, streams, context);
   return program;
 }
 
@@ -98,7 +97,6 @@ function addCommand(
   definition: CommandDefinition,
   streams: CliStreams,
   context: CommandContext,
-  setExitCode: (code: number) => void,
 ): void {
   const command = program
     .command(definition.name)
@@ -115,7 +113,6 @@ function addCommand(
     const flags = new FlagReader(invoked.opts());
     const report = await definition.run(flags, context);
     streams.stdout(flags.switch('--json') ? renderJson(report) : renderText(report));
-    setExitCode(0);
   });
 }
 
