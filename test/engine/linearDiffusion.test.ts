@@ -19,7 +19,7 @@ function runSheet(cellCount: number, firstCellM: number, maxStepS: number) {
   const workspace = createWorkspace(cellCount);
   const state: TransportState = {
     timeS: 0,
-    pressurePa: new Float64Array(cellCount).fill(hydraulics.pressureFromSaturation(0, 0)),
+    pressurePa: new Float64Array(cellCount).fill(hydraulics.pressureFromSaturation(0)),
     nextStepS: 1e-3,
     surfaceInflowM: 0,
     storageWaterM: 0,
@@ -40,6 +40,9 @@ function runSheet(cellCount: number, firstCellM: number, maxStepS: number) {
     );
     const saturation = new Float64Array(cellCount);
     hydraulics.evaluate(state.pressurePa, saturation, scratch, scratch.slice());
+    saturation.forEach(
+      (water, i) => (saturation[i] = hydraulics.saturationFromWaterContent(water)),
+    );
     let held = 0;
     for (let i = 0; i < cellCount; i += 1) held += (grid.widthsM[i] ?? 0) * (saturation[i] ?? 0);
     const profileAt = (depthM: number): number => {

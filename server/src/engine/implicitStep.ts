@@ -1,9 +1,11 @@
 /**
  * One backward-Euler step of the mixed form of the moisture balance (physics.md section 3),
  *   d(phi S)/dt + S_s dp/dt = -dq/dx,   q = -K dp/dx,   K = k(S)/eta (+ vapour),
+ * written as d theta / dt = -dq/dx with theta(p) the water content the hydraulics report
+ * (phi S plus the specific-storage water),
  * on a cell-centred grid, solved with the modified Picard iteration of Celia, Bouloutas and
- * Zarba (1990), Water Resources Research 26(7), 1483-1496: the saturation at the new level is
- * expanded as S(p^{m+1}) = S(p^m) + C^m (p^{m+1} - p^m), which conserves mass exactly at
+ * Zarba (1990), Water Resources Research 26(7), 1483-1496: the water content at the new level is
+ * expanded as theta(p^{m+1}) = theta(p^m) + C^m (p^{m+1} - p^m), which conserves mass exactly at
  * convergence; K is lagged one iteration. Each iteration is one tridiagonal (Thomas) solve.
  */
 import type { DepthGrid } from './grid.ts';
@@ -22,7 +24,7 @@ export type SurfaceCondition =
 
 /** Iteration controls of {@link implicitStep}. */
 export interface ImplicitStepOptions {
-  /** Most Picard iterations before the step is declared failed; default 25 (our assumption). */
+  /** Most Picard iterations before the step is declared failed; default 40 (our assumption). */
   maxIterations?: number;
   /** Relative pressure-change tolerance; default 1e-7 (our assumption). */
   pressureRelativeTolerance?: number;
@@ -34,6 +36,13 @@ export interface ImplicitStepOptions {
    * (our assumption). Suctions below 1 kPa are treated as 1 kPa for this limit.
    */
   suctionGrowthLimit?: number;
+  /**
+   * 'newton' (default) adds the derivative of the conductivity to the Jacobian (finite
+   * difference per cell), converging in a few iterations where drying makes K steep;
+   * 'picard' lags K one iteration (the modified Picard scheme of Celia et al. 1990 as published).
+   * Both conserve mass exactly at convergence.
+   */
+  linearisation?: 'newton' | 'picard';
 }
 
 /** Outcome of one step. Volumes are m3 of liquid per m2 of surface (m). */
@@ -42,18 +51,20 @@ export interface StepResult {
   iterations: number;
   /** Water that entered through the surface during the step, m (negative when drying). */
   surfaceInflowM: number;
-  /** Water released into the pores by the storage term during the step, m (S_s dp summed). */
+  /** Change of the water held by the specific storage during the step, m. */
   storageWaterM: number;
-  /** Change of pore water phi S during the step, m. */
-  poreWaterChangeM: number;
-  /** Mass defect: poreWaterChange + storageWater - surfaceInflow, m (0 at exact balance). */
+  /** Change of all water held (theta summed over cells) during the step, m. */
+  waterChangeM: number;
+  /** Mass defect: waterChange - surfaceInflow, m (0 at exact balance). */
   massDefectM: number;
 }
 
 /** Preallocated arrays for {@link implicitStep}; build once per grid with {@link createWorkspace}. */
 export interface StepWorkspace {
-  saturationOld: Float64Array;
-  saturation: Float64Array;
+  waterOld: Float64Array;
+  water: Float64Array;
+  storageOld: Float64Array;
+  storage: Float64Array;
   capacity: Float64Array;
   conductivity: Float64Array;
   iterate: Float64Array;
@@ -63,14 +74,21 @@ export interface StepWorkspace {
   rightHandSide: Float64Array;
   increment: Float64Array;
   scratch: Float64Array;
+  perturbed: Float64Array;
+  waterPerturbed: Float64Array;
+  capacityPerturbed: Float64Array;
+  conductivityPerturbed: Float64Array;
+  conductivitySlope: Float64Array;
 }
 
 /** Allocates the workspace of a grid with `cellCount` cells. */
 export function createWorkspace(cellCount: number): StepWorkspace {
   const make = (): Float64Array => new Float64Array(cellCount);
   return {
-    saturationOld: make(),
-    saturation: make(),
+    waterOld: make(),
+    water: make(),
+    storageOld: make(),
+    storage: make(),
     capacity: make(),
     conductivity: make(),
     iterate: make(),
@@ -80,6 +98,11 @@ export function createWorkspace(cellCount: number): StepWorkspace {
     rightHandSide: make(),
     increment: make(),
     scratch: make(),
+    perturbed: make(),
+    waterPerturbed: make(),
+    capacityPerturbed: make(),
+    conductivityPerturbed: make(),
+    conductivitySlope: make(),
   };
 }
 
@@ -90,7 +113,7 @@ export function createWorkspace(cellCount: number): StepWorkspace {
  * step controller then retries with a shorter step).
  *
  * Convergence needs both the pressure change below tolerance and the mass defect below
- * 1e-13 of the pore volume plus 1e-10 of the step's surface exchange, so that a whole run's
+ * 1e-13 of the water held plus 1e-10 of the step's surface exchange, so that a whole run's
  * balance closes to about 1e-8 (physics.md section 3).
  */
 export function implicitStep(
@@ -103,41 +126,39 @@ export function implicitStep(
   surface: SurfaceCondition,
   options: ImplicitStepOptions = {},
 ): StepResult {
-  const maxIterations = options.maxIterations ?? 25;
+  const maxIterations = options.maxIterations ?? 40;
   const relativeTolerance = options.pressureRelativeTolerance ?? 1e-7;
   const absoluteTolerancePa = options.pressureAbsoluteTolerancePa ?? 1e-3;
   const growthLimit = options.suctionGrowthLimit ?? 10;
+  const newton = (options.linearisation ?? 'newton') === 'newton';
+  const { perturbed, waterPerturbed, capacityPerturbed, conductivityPerturbed, conductivitySlope } =
+    workspace;
   const n = grid.cellCount;
   const widths = grid.widthsM;
   const spacing = grid.centreSpacingM;
-  const porosity = hydraulics.porosity;
-  const storage = hydraulics.specificStoragePerPa;
-  const { saturationOld, saturation, capacity, conductivity, iterate } = workspace;
+  const { waterOld, water, storageOld, storage, capacity, conductivity, iterate } = workspace;
   const { lower, diagonal, upper, rightHandSide, increment, scratch } = workspace;
 
-  hydraulics.evaluate(pressureOldPa, saturationOld, capacity, conductivity);
-  let poreVolumeM = 0;
-  for (let i = 0; i < n; i += 1) poreVolumeM += (widths[i] as number) * (porosity[i] as number);
+  hydraulics.evaluate(pressureOldPa, waterOld, capacity, conductivity, storageOld);
+  let waterHeldM = 0;
+  for (let i = 0; i < n; i += 1)
+    waterHeldM += (widths[i] as number) * Math.abs(waterOld[i] as number);
   iterate.set(pressureOldPa);
 
   let surfaceInflowM = 0;
   let pendingCheck = false;
   for (let iteration = 1; iteration <= maxIterations + 1; iteration += 1) {
-    hydraulics.evaluate(iterate, saturation, capacity, conductivity);
+    hydraulics.evaluate(iterate, water, capacity, conductivity, pendingCheck ? storage : undefined);
     if (pendingCheck) {
-      let poreWaterChangeM = 0;
+      let waterChangeM = 0;
       let storageWaterM = 0;
       for (let i = 0; i < n; i += 1) {
         const width = widths[i] as number;
-        poreWaterChangeM +=
-          width *
-          (porosity[i] as number) *
-          ((saturation[i] as number) - (saturationOld[i] as number));
-        storageWaterM +=
-          width * (storage[i] as number) * ((iterate[i] as number) - (pressureOldPa[i] as number));
+        waterChangeM += width * ((water[i] as number) - (waterOld[i] as number));
+        storageWaterM += width * ((storage[i] as number) - (storageOld[i] as number));
       }
-      const massDefectM = poreWaterChangeM + storageWaterM - surfaceInflowM;
-      const massTolerance = 1e-13 * poreVolumeM + 1e-10 * Math.abs(surfaceInflowM);
+      const massDefectM = waterChangeM - surfaceInflowM;
+      const massTolerance = 1e-13 * waterHeldM + 1e-10 * Math.abs(surfaceInflowM);
       if (Math.abs(massDefectM) <= massTolerance) {
         pressureNewPa.set(iterate);
         return {
@@ -145,26 +166,33 @@ export function implicitStep(
           iterations: iteration - 1,
           surfaceInflowM,
           storageWaterM,
-          poreWaterChangeM,
+          waterChangeM,
           massDefectM,
         };
       }
     }
     if (iteration > maxIterations) break;
 
+    if (newton) {
+      for (let i = 0; i < n; i += 1) {
+        const pressure = iterate[i] as number;
+        perturbed[i] = pressure - Math.max(1, 1e-6 * Math.abs(pressure));
+      }
+      hydraulics.evaluate(perturbed, waterPerturbed, capacityPerturbed, conductivityPerturbed);
+      for (let i = 0; i < n; i += 1) {
+        conductivitySlope[i] =
+          ((conductivity[i] as number) - (conductivityPerturbed[i] as number)) /
+          ((iterate[i] as number) - (perturbed[i] as number));
+      }
+    } else {
+      conductivitySlope.fill(0);
+    }
+
     // Assemble the linear system for the increment delta = p^{m+1} - p^m.
     for (let i = 0; i < n; i += 1) {
       const width = widths[i] as number;
-      const pressure = iterate[i] as number;
-      diagonal[i] =
-        (width * ((porosity[i] as number) * (capacity[i] as number) + (storage[i] as number))) /
-        stepS;
-      rightHandSide[i] =
-        -(
-          width *
-          ((porosity[i] as number) * ((saturation[i] as number) - (saturationOld[i] as number)) +
-            (storage[i] as number) * (pressure - (pressureOldPa[i] as number)))
-        ) / stepS;
+      diagonal[i] = (width * (capacity[i] as number)) / stepS;
+      rightHandSide[i] = -(width * ((water[i] as number) - (waterOld[i] as number))) / stepS;
       lower[i] = 0;
       upper[i] = 0;
     }
@@ -172,11 +200,16 @@ export function implicitStep(
       const conductance =
         (0.5 * ((conductivity[face] as number) + (conductivity[face + 1] as number))) /
         (spacing[face] as number);
-      const flow = conductance * ((iterate[face + 1] as number) - (iterate[face] as number));
-      diagonal[face] = (diagonal[face] as number) + conductance;
-      diagonal[face + 1] = (diagonal[face + 1] as number) + conductance;
-      upper[face] = -conductance;
-      lower[face + 1] = -conductance;
+      const difference = (iterate[face + 1] as number) - (iterate[face] as number);
+      const flow = conductance * difference;
+      // Newton terms: d(flow)/dp through the face conductivity (zero for Picard).
+      const lever = difference / (2 * (spacing[face] as number));
+      const slopeLeft = lever * (conductivitySlope[face] as number);
+      const slopeRight = lever * (conductivitySlope[face + 1] as number);
+      diagonal[face] = (diagonal[face] as number) + conductance - slopeLeft;
+      diagonal[face + 1] = (diagonal[face + 1] as number) + conductance + slopeRight;
+      upper[face] = -conductance - slopeRight;
+      lower[face + 1] = -conductance + slopeLeft;
       rightHandSide[face] = (rightHandSide[face] as number) + flow;
       rightHandSide[face + 1] = (rightHandSide[face + 1] as number) - flow;
     }
@@ -184,9 +217,12 @@ export function implicitStep(
     let inflowRate: number;
     let inflowSlope: number;
     if (surface.kind === 'pressure') {
-      const conductance = (conductivity[0] as number) / (0.5 * (widths[0] as number));
+      const halfWidth = 0.5 * (widths[0] as number);
+      const conductance = (conductivity[0] as number) / halfWidth;
       inflowRate = conductance * (surface.pressurePa - surfacePressure);
-      inflowSlope = -conductance;
+      inflowSlope =
+        -conductance +
+        ((conductivitySlope[0] as number) / halfWidth) * (surface.pressurePa - surfacePressure);
     } else {
       const outflow = surface.volumeFluxMs(surfacePressure);
       const probe = Math.max(1, 1e-6 * Math.abs(surfacePressure));
@@ -228,7 +264,7 @@ function failed(iterations: number, surfaceInflowM: number): StepResult {
     iterations,
     surfaceInflowM,
     storageWaterM: Number.NaN,
-    poreWaterChangeM: Number.NaN,
+    waterChangeM: Number.NaN,
     massDefectM: Number.NaN,
   };
 }

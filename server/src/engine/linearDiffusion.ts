@@ -19,30 +19,40 @@ export interface LinearDiffusionOptions {
   pressureScalePa?: number;
 }
 
+/** Linear-mode hydraulics with the conversions a test needs. */
+export interface LinearDiffusionHydraulics extends CellHydraulics {
+  /** Pressure (Pa) that stands for saturation S. */
+  pressureFromSaturation(saturation: number): number;
+  /** Saturation S of a water content theta. */
+  saturationFromWaterContent(waterContent: number): number;
+}
+
 /**
  * Hydraulics of a linear diffusion problem: S = 1 + p / P and K = D phi / P, so the mixed form
- * phi dS/dt = d/dx (K dp/dx) becomes dS/dt = D d2S/dx2 exactly (no storage, no saturation
+ * phi dS/dt = d/dx (K dp/dx) becomes dS/dt = D d2S/dx2 exactly (no specific storage, no saturation
  * bound: S is not clipped to 0..1 so the mode stays linear). Used to verify the solver against
  * the plane-sheet series of Crank (1975), The Mathematics of Diffusion, 2nd ed., chapter 4.
  */
-export function linearDiffusionHydraulics(options: LinearDiffusionOptions): CellHydraulics {
+export function linearDiffusionHydraulics(
+  options: LinearDiffusionOptions,
+): LinearDiffusionHydraulics {
   const porosityValue = options.porosity ?? 1;
   const pressureScalePa = options.pressureScalePa ?? 1e6;
   const conductivityValue = (options.diffusivityM2s * porosityValue) / pressureScalePa;
-  const porosity = new Float64Array(options.cellCount).fill(porosityValue);
-  const specificStoragePerPa = new Float64Array(options.cellCount);
   return {
-    porosity,
-    specificStoragePerPa,
-    evaluate(pressurePa, saturation, capacityPerPa, conductivity) {
+    evaluate(pressurePa, waterContent, capacityPerPa, conductivity, storageContent) {
       for (let i = 0; i < pressurePa.length; i += 1) {
-        saturation[i] = 1 + (pressurePa[i] as number) / pressureScalePa;
-        capacityPerPa[i] = 1 / pressureScalePa;
+        waterContent[i] = porosityValue * (1 + (pressurePa[i] as number) / pressureScalePa);
+        capacityPerPa[i] = porosityValue / pressureScalePa;
         conductivity[i] = conductivityValue;
+        if (storageContent !== undefined) storageContent[i] = 0;
       }
     },
-    pressureFromSaturation(_cell, saturationValue) {
+    pressureFromSaturation(saturationValue) {
       return (saturationValue - 1) * pressureScalePa;
+    },
+    saturationFromWaterContent(waterContent) {
+      return waterContent / porosityValue;
     },
   };
 }

@@ -1,0 +1,188 @@
+/**
+ * What the element model reports at one instant (physics.md sections 5 to 7): the depth
+ * profiles, the drying stress in the element's mode, strength per depth, and the risk figures
+ * with their phase. Composes the physics library; computes no physics of its own.
+ */
+import { dryingStressFromEquivalentPressure } from '../physics/dryingStress.ts';
+import { schindlerFolliardDegreeOfHydration } from '../physics/hydration.ts';
+import {
+  bleedFilmRemainingHours,
+  coreSurfaceTemperatureCheck,
+  evaporationAgainstBleeding,
+  evaporationPrecautionVerdict,
+  type CoreSurfaceTemperatureCheck,
+  type EvaporationAgainstBleeding,
+  type EvaporationPrecautionVerdict,
+} from '../physics/precautions.ts';
+import { riskPhase, type RiskPhase } from '../physics/riskPhase.ts';
+import { inPlaceStrength } from '../physics/strengthDevelopment.ts';
+import {
+  DEFAULT_UTILIZATION_THRESHOLDS,
+  riskFigures,
+  type UtilizationState,
+  type UtilizationThresholds,
+} from '../physics/utilization.ts';
+import { SECONDS_PER_DAY, SECONDS_PER_HOUR } from '../physics/units.ts';
+import type { ElementModel } from './elementModel.ts';
+import type { ElementState } from './elementState.ts';
+
+/** Depth profiles at one instant, index 0 at the exposed surface. SI units. */
+export interface ElementProfiles {
+  depthM: number[];
+  saturation: number[];
+  liquidPressurePa: number[];
+  relativeHumidity: number[];
+  equivalentPorePressurePa: number[];
+  stressPa: number[];
+  tensileStrengthPa: number[];
+  compressiveStrengthPa: number[];
+  equivalentAgeS: number[];
+  degreeOfHydration: number[];
+  temperatureK: number[];
+}
+
+/** Figures of one instant. */
+export interface ElementFigures {
+  timeS: number;
+  phase: RiskPhase;
+  /** Utilization U of the phase (physics.md section 7). */
+  utilization: number;
+  /** fct - sigma_s, Pa; NaN in the plastic phase. */
+  marginPa: number;
+  utilizationState: UtilizationState;
+  surfaceStressPa: number;
+  surfaceTensileStrengthPa: number;
+  surfaceCompressiveStrengthPa: number;
+  surfaceLiquidPressurePa: number;
+  surfaceSaturation: number;
+  surfaceRelativeHumidity: number;
+  /** Critical suction of the plastic phase, Pa. */
+  criticalSuctionPa: number;
+  /** Evaporation over the last step, kg/(m2 s). */
+  evaporationKgM2s: number;
+  /** Wet-surface (potential) evaporation over the last step, kg/(m2 s). */
+  potentialEvaporationKgM2s: number;
+  bleedFilmKgM2: number;
+  /** Hours until the bleed film is gone at the current rates (0: none; Infinity: growing). */
+  bleedFilmRemainingH: number;
+  evaporationAgainstBleeding: EvaporationAgainstBleeding;
+  evaporationPrecaution: EvaporationPrecautionVerdict;
+  coreSurfaceTemperature: CoreSurfaceTemperatureCheck;
+  /** Water evaporated since placement, kg/m2. */
+  waterLossKgM2: number;
+  profiles: ElementProfiles;
+}
+
+/**
+ * Evaluates the figures of `state` under `model`. For `two-face` drying the profiles cover the
+ * half thickness (surface to symmetry plane) and 'curl' acts as 'flat'.
+ */
+export function evaluateElement(
+  model: ElementModel,
+  state: ElementState,
+  thresholds: UtilizationThresholds = DEFAULT_UTILIZATION_THRESHOLDS,
+): ElementFigures {
+  model.applyState(state);
+  const { grid, hydraulics, material, config } = model;
+  const n = grid.cellCount;
+  const profiles: ElementProfiles = {
+    depthM: Array.from(grid.centresM),
+    saturation: [],
+    liquidPressurePa: [],
+    relativeHumidity: [],
+    equivalentPorePressurePa: [],
+    stressPa: [],
+    tensileStrengthPa: [],
+    compressiveStrengthPa: [],
+    equivalentAgeS: Array.from(state.equivalentAgeS),
+    degreeOfHydration: [],
+    temperatureK: Array.from(state.temperatureK),
+  };
+  for (let i = 0; i < n; i += 1) {
+    const pressure = state.transport.pressurePa[i] as number;
+    profiles.liquidPressurePa.push(pressure);
+    profiles.saturation.push(hydraulics.saturationAt(i, pressure));
+    profiles.relativeHumidity.push(hydraulics.relativeHumidity(i, Math.min(0, pressure)));
+    profiles.equivalentPorePressurePa.push(hydraulics.equivalentPorePressurePa(i, pressure));
+    const ageS = state.equivalentAgeS[i] as number;
+    if (material.mix !== undefined) {
+      const strength = inPlaceStrength(
+        ageS / SECONDS_PER_DAY,
+        material.mix.strength,
+        material.mix.setting,
+      );
+      profiles.tensileStrengthPa.push(strength.tensileStrengthMPa * 1e6);
+      profiles.compressiveStrengthPa.push(strength.compressiveStrengthMPa * 1e6);
+      profiles.degreeOfHydration.push(
+        schindlerFolliardDegreeOfHydration(ageS, material.mix.hydration),
+      );
+    } else {
+      profiles.tensileStrengthPa.push(material.fixedStrength?.tensileStrengthPa ?? Number.NaN);
+      profiles.compressiveStrengthPa.push(Number.NaN);
+      profiles.degreeOfHydration.push(Number.NaN);
+    }
+  }
+  const requestedMode = config.stressMode ?? 'flat';
+  const mode =
+    config.dryingCase === 'two-face' && requestedMode === 'curl' ? 'flat' : requestedMode;
+  const stress = dryingStressFromEquivalentPressure(
+    { depthsM: profiles.depthM, weightsM: Array.from(grid.widthsM) },
+    profiles.equivalentPorePressurePa,
+    {
+      mode,
+      restraintDegree: config.restraintDegree ?? 1,
+      biotCoefficient: material.biotCoefficient,
+      poissonRatio: material.poissonRatio,
+      relaxationFactor: material.relaxationFactor,
+    },
+  );
+  profiles.stressPa = stress.stressesPa;
+  const surfaceAgeS = state.equivalentAgeS[0] as number;
+  const phase: RiskPhase =
+    material.mix === undefined
+      ? 'hardening'
+      : riskPhase(surfaceAgeS / SECONDS_PER_DAY, material.mix.setting.finalSetEquivalentAgeDays);
+  const surfacePressure = profiles.liquidPressurePa[0] as number;
+  const surfaceStrength = profiles.tensileStrengthPa[0] as number;
+  const risk = riskFigures(
+    phase === 'plastic'
+      ? { phase, surfacePressurePa: surfacePressure, criticalSuctionPa: material.criticalSuctionPa }
+      : { phase, surfaceStressPa: stress.surfaceStressPa, tensileStrengthPa: surfaceStrength },
+    thresholds,
+  );
+  const potentialKgM2h = state.lastPotentialEvaporationKgM2s * SECONDS_PER_HOUR;
+  const bleedRateKgM2h =
+    material.mix !== undefined && state.transport.timeS <= material.mix.bleedingDurationS
+      ? material.mix.bleedRateKgM2s * SECONDS_PER_HOUR
+      : 0;
+  return {
+    timeS: state.transport.timeS,
+    phase,
+    utilization: risk.utilization,
+    marginPa: risk.marginPa,
+    utilizationState: risk.state,
+    surfaceStressPa: stress.surfaceStressPa,
+    surfaceTensileStrengthPa: surfaceStrength,
+    surfaceCompressiveStrengthPa: profiles.compressiveStrengthPa[0] as number,
+    surfaceLiquidPressurePa: surfacePressure,
+    surfaceSaturation: profiles.saturation[0] as number,
+    surfaceRelativeHumidity: profiles.relativeHumidity[0] as number,
+    criticalSuctionPa: material.criticalSuctionPa,
+    evaporationKgM2s: state.lastEvaporationKgM2s,
+    potentialEvaporationKgM2s: state.lastPotentialEvaporationKgM2s,
+    bleedFilmKgM2: state.bleedFilmKgM2,
+    bleedFilmRemainingH: bleedFilmRemainingHours(
+      state.bleedFilmKgM2,
+      potentialKgM2h,
+      bleedRateKgM2h,
+    ),
+    evaporationAgainstBleeding: evaporationAgainstBleeding(potentialKgM2h, bleedRateKgM2h),
+    evaporationPrecaution: evaporationPrecautionVerdict(potentialKgM2h),
+    coreSurfaceTemperature: coreSurfaceTemperatureCheck(
+      state.temperatureK[n - 1] as number,
+      state.temperatureK[0] as number,
+    ),
+    waterLossKgM2: state.evaporatedKgM2,
+    profiles,
+  };
+}

@@ -1,0 +1,318 @@
+/**
+ * The drying model of one element (physics.md sections 1 to 7): moisture transport through the
+ * depth, the exposed surface with bleeding and curing measures, maturity, hydration and pore
+ * refinement per depth. `advanceTo` is driven by event time; the state is separate from the
+ * model so ensemble members share one model and copy only their state.
+ */
+import { arrheniusAgeFactor, type MaturityOptions } from '../physics/maturity.ts';
+import {
+  hydrationHumidityFactor,
+  schindlerFolliardDegreeOfHydration,
+} from '../physics/hydration.ts';
+import { inPlaceStrength } from '../physics/strengthDevelopment.ts';
+import type { DryingStressMode } from '../physics/dryingStress.ts';
+import { kelvinToCelsius, SECONDS_PER_DAY } from '../physics/units.ts';
+import {
+  checkBoundaryInputs,
+  fillCellTemperatures,
+  type BoundaryInputs,
+} from './boundaryInputs.ts';
+import {
+  elementMaterialFromPreset,
+  refinementDiameterScale,
+  type ElementMaterial,
+} from './elementMaterial.ts';
+import type { ElementState } from './elementState.ts';
+import { buildDepthGrid, domainDepthM, type DepthGrid, type DryingCase } from './grid.ts';
+import { createWorkspace, type SurfaceCondition } from './implicitStep.ts';
+import type { MaterialPreset } from './materialPreset.ts';
+import { createPoreHydraulics, type PoreHydraulics } from './poreHydraulics.ts';
+import { advanceTransport, type StepControlOptions } from './stepController.ts';
+import { surfaceEvaporation, type SurfaceEvaporationOptions } from './surfaceEvaporation.ts';
+
+/** Options of the element model. Every default states its origin. */
+export interface ElementModelOptions {
+  /** Cells over the depth, default 60 (physics.md section 1). */
+  cellCount?: number;
+  /** First cell at the surface, m, default 1e-4 (physics.md section 1). */
+  firstCellM?: number;
+  /** Vapour diffusion through drained pores, default true (physics.md section 3). */
+  vapourDiffusion?: boolean;
+  /** Pore refinement with hydration, default true (physics.md section 2, our assumption). */
+  poreRefinement?: boolean;
+  /** Hydration slows where pores dry, default true (physics.md section 6). */
+  hydrationHumidityFactor?: boolean;
+  /** Multiplier on permeability, default 1 (the calibration adjusts its log). */
+  permeabilityMultiplier?: number;
+  /** Surface options: exposure multiplier, condensation, curing-measure defaults. */
+  surface?: SurfaceEvaporationOptions;
+  /** Maturity options (activation energy 40 kJ/mol, reference 20 degC by default). */
+  maturity?: MaturityOptions;
+  /** Step control (see stepController.ts); maxStepS default 600 s here (our assumption). */
+  step?: StepControlOptions;
+  /** Bleed film at placement, kg/m2, default 0 (our assumption). */
+  initialBleedFilmKgM2?: number;
+  /** Bulk modulus of water for the specific storage, Pa, default 2.2e9 (common value, from memory). */
+  waterBulkModulusPa?: number;
+  /** Density turning water volume into mass in the ledger, kg/m3, default 998.2 (water at 20 degC, IAPWS). */
+  liquidDensityKgPerM3?: number;
+  /** Relative change of a cell's pore-diameter factor that triggers its update, default 1e-3 (our assumption). */
+  refinementUpdateThreshold?: number;
+}
+
+/** Configuration of one element. */
+export interface ElementModelConfig {
+  /** A validated preset (see materialPreset.ts). */
+  material: MaterialPreset;
+  /** Element thickness, m. */
+  thicknessM: number;
+  dryingCase: DryingCase;
+  /** Stress mode (physics.md section 5), default 'flat'. For `two-face`, 'curl' acts as 'flat' (symmetric profile). */
+  stressMode?: DryingStressMode;
+  /** External restraint degree for 'restrained', 0..1, default 1 (our assumption, upper bound). */
+  restraintDegree?: number;
+  options?: ElementModelOptions;
+}
+
+/** A ready element model: shared by every state (ensemble member) of the element. */
+export interface ElementModel {
+  readonly config: ElementModelConfig;
+  readonly material: ElementMaterial;
+  readonly grid: DepthGrid;
+  readonly hydraulics: PoreHydraulics;
+  readonly liquidDensityKgPerM3: number;
+  /** A saturated element at placement (time 0) at a uniform temperature (K, default 293.15). */
+  initialState(temperatureK?: number): ElementState;
+  /**
+   * Advances `state` in place to `timeS` (s since placement) with `inputs` held over the
+   * interval. Throws BoundaryInputError for refused inputs (e.g. freezing) and
+   * EngineConvergenceError if the transport cannot converge; a target at or before the state's
+   * time only updates the temperatures.
+   */
+  advanceTo(state: ElementState, timeS: number, inputs: BoundaryInputs): void;
+  /** Points the shared hydraulics at a state (temperatures, refinement, storage). */
+  applyState(state: ElementState): void;
+}
+
+/** Builds the model of one element. */
+export function createElementModel(config: ElementModelConfig): ElementModel {
+  const options = config.options ?? {};
+  const material = elementMaterialFromPreset(config.material);
+  const grid = buildDepthGrid(domainDepthM(config.thicknessM, config.dryingCase), {
+    cellCount: options.cellCount ?? 60,
+    firstCellM: options.firstCellM ?? 1e-4,
+  });
+  const n = grid.cellCount;
+  const liquidDensity = options.liquidDensityKgPerM3 ?? 998.2;
+  const hydraulics = createPoreHydraulics({
+    poreSizes: material.freshPores,
+    porosity: material.porosity,
+    tortuosity: material.tortuosity,
+    permeabilityMultiplier: options.permeabilityMultiplier ?? 1,
+    vapourDiffusion: options.vapourDiffusion ?? true,
+    liquidDensityKgPerM3: liquidDensity,
+    cellCount: n,
+  });
+  const workspace = createWorkspace(n);
+  const stepOptions: StepControlOptions = { maxStepS: 600, ...options.step };
+  const refinementOn = (options.poreRefinement ?? true) && material.mix !== undefined;
+  const humidityFactorOn = options.hydrationHumidityFactor ?? true;
+  const threshold = options.refinementUpdateThreshold ?? 1e-3;
+  const waterBulkModulus = options.waterBulkModulusPa ?? 2.2e9;
+  const waterBefore = new Float64Array(n);
+  const targetStorage = new Float64Array(n);
+  const targetScale = new Float64Array(n);
+  const maturityRate = new Float64Array(n);
+
+  const specificStorage = (equivalentAgeS: number): number => {
+    let modulusPa: number;
+    let floorPa = 0;
+    if (material.mix !== undefined) {
+      const strength = inPlaceStrength(
+        equivalentAgeS / SECONDS_PER_DAY,
+        material.mix.strength,
+        material.mix.setting,
+      );
+      modulusPa = strength.modulusGPa * 1e9;
+      floorPa = material.mix.drainedBulkModulusFloorPa;
+    } else {
+      modulusPa = material.fixedStrength?.modulusPa ?? Number.NaN;
+    }
+    const drainedBulkPa = Math.max(floorPa, modulusPa / (3 * (1 - 2 * material.poissonRatio)));
+    return material.porosity / waterBulkModulus + material.biotCoefficient ** 2 / drainedBulkPa;
+  };
+
+  const applyState = (state: ElementState): void => {
+    hydraulics.temperatureK.set(state.temperatureK);
+    hydraulics.diameterScale.set(state.diameterScale);
+    hydraulics.specificStoragePerPa.set(state.specificStoragePerPa);
+    hydraulics.refreshTemperature();
+  };
+
+  const rememberWater = (state: ElementState): void => {
+    for (let i = 0; i < n; i += 1) {
+      waterBefore[i] = hydraulics.waterContentAt(i, state.transport.pressurePa[i] as number);
+    }
+  };
+
+  /**
+   * After the water-content curve of cells changed (temperature, refinement, storage), moves
+   * their pressures so each cell holds the same water as before: mass is conserved exactly (to
+   * rounding) through the change.
+   */
+  const remapPressures = (state: ElementState): void => {
+    const pressures = state.transport.pressurePa;
+    for (let i = 0; i < n; i += 1) {
+      pressures[i] = hydraulics.pressureForWaterContent(
+        i,
+        waterBefore[i] as number,
+        pressures[i] as number,
+      );
+    }
+  };
+
+  const initialState = (temperatureK = 293.15): ElementState => ({
+    transport: {
+      timeS: 0,
+      pressurePa: new Float64Array(n),
+      nextStepS: 1,
+      surfaceInflowM: 0,
+      storageWaterM: 0,
+      massDefectM: 0,
+      acceptedSteps: 0,
+      rejectedSteps: 0,
+    },
+    equivalentAgeS: new Float64Array(n),
+    temperatureK: new Float64Array(n).fill(temperatureK),
+    diameterScale: new Float64Array(n).fill(1),
+    specificStoragePerPa: new Float64Array(n).fill(specificStorage(0)),
+    bleedFilmKgM2: options.initialBleedFilmKgM2 ?? 0,
+    bledKgM2: 0,
+    evaporatedKgM2: 0,
+    coveringUptakeKgM2: 0,
+    lastEvaporationKgM2s: 0,
+    lastPotentialEvaporationKgM2s: 0,
+  });
+
+  const advanceTo = (state: ElementState, timeS: number, inputs: BoundaryInputs): void => {
+    checkBoundaryInputs(inputs);
+    applyState(state);
+    rememberWater(state);
+    fillCellTemperatures(inputs, grid.centresM, state.temperatureK);
+    hydraulics.temperatureK.set(state.temperatureK);
+    hydraulics.refreshTemperature();
+    remapPressures(state);
+    for (let i = 0; i < n; i += 1) {
+      maturityRate[i] = arrheniusAgeFactor(
+        kelvinToCelsius(state.temperatureK[i] as number),
+        options.maturity ?? {},
+      );
+    }
+    const evaporation = surfaceEvaporation(inputs, options.surface ?? {});
+    const mix = material.mix;
+    const bleedRateAt = (t: number): number =>
+      mix !== undefined && t <= mix.bleedingDurationS ? mix.bleedRateKgM2s : 0;
+    type Mode = 'covered' | 'film' | 'exposed';
+    let mode: Mode = 'exposed';
+    let bleedRate = 0;
+    const outflow = {
+      kind: 'outflow' as const,
+      volumeFluxMs: (surfacePressurePa: number): number =>
+        Math.max(
+          0,
+          evaporation.rateKgM2s(hydraulics.relativeHumidity(0, Math.min(0, surfacePressurePa))) -
+            bleedRate,
+        ) / liquidDensity,
+    };
+    const saturatedSurface: SurfaceCondition = { kind: 'pressure', pressurePa: 0 };
+    const surfaceAt = (endS: number): SurfaceCondition => {
+      bleedRate = bleedRateAt(endS);
+      if (evaporation.heldSaturated) mode = 'covered';
+      else if (
+        state.bleedFilmKgM2 > 0 ||
+        (bleedRate > 0 && evaporation.potentialKgM2s <= bleedRate)
+      )
+        mode = 'film';
+      else mode = 'exposed';
+      return mode === 'exposed' ? outflow : saturatedSurface;
+    };
+    const onStep = (stepS: number, result: { surfaceInflowM: number }): void => {
+      const inflowKgM2 = result.surfaceInflowM * liquidDensity;
+      const bled = bleedRate * stepS;
+      const evaporatedBefore = state.evaporatedKgM2;
+      state.bledKgM2 += bled;
+      if (mode === 'covered') {
+        state.coveringUptakeKgM2 += inflowKgM2;
+        state.bleedFilmKgM2 += bled;
+      } else if (mode === 'film') {
+        const film = state.bleedFilmKgM2 + bled - inflowKgM2;
+        const wanted = evaporation.potentialKgM2s * stepS;
+        const taken = Math.min(Math.max(film, 0), wanted);
+        state.evaporatedKgM2 += taken;
+        state.bleedFilmKgM2 = Math.max(0, film - taken);
+      } else {
+        state.evaporatedKgM2 += bled - inflowKgM2;
+      }
+      state.lastEvaporationKgM2s = (state.evaporatedKgM2 - evaporatedBefore) / stepS;
+      state.lastPotentialEvaporationKgM2s = evaporation.potentialKgM2s;
+      advanceMaturity(state, stepS);
+    };
+    advanceTransport(
+      grid,
+      hydraulics,
+      workspace,
+      state.transport,
+      timeS,
+      surfaceAt,
+      stepOptions,
+      onStep,
+    );
+  };
+
+  const advanceMaturity = (state: ElementState, stepS: number): void => {
+    const mix = material.mix;
+    if (mix === undefined) return;
+    const pressures = state.transport.pressurePa;
+    let update = false;
+    for (let i = 0; i < n; i += 1) {
+      const pressure = pressures[i] as number;
+      const humidityFactor = humidityFactorOn
+        ? hydrationHumidityFactor(hydraulics.relativeHumidity(i, Math.min(0, pressure)))
+        : 1;
+      const rate = maturityRate[i] as number;
+      const age = (state.equivalentAgeS[i] as number) + stepS * rate * humidityFactor;
+      state.equivalentAgeS[i] = age;
+      const storage = specificStorage(age);
+      const scale = refinementOn
+        ? refinementDiameterScale(mix, schindlerFolliardDegreeOfHydration(age, mix.hydration))
+        : 1;
+      targetStorage[i] = storage;
+      targetScale[i] = scale;
+      if (
+        Math.abs(storage / (state.specificStoragePerPa[i] as number) - 1) > threshold ||
+        Math.abs(scale / (state.diameterScale[i] as number) - 1) > threshold
+      ) {
+        update = true;
+      }
+    }
+    if (!update) return;
+    rememberWater(state);
+    state.diameterScale.set(targetScale);
+    state.specificStoragePerPa.set(targetStorage);
+    hydraulics.diameterScale.set(targetScale);
+    hydraulics.specificStoragePerPa.set(targetStorage);
+    hydraulics.refreshScale();
+    remapPressures(state);
+  };
+
+  return {
+    config,
+    material,
+    grid,
+    hydraulics,
+    liquidDensityKgPerM3: liquidDensity,
+    initialState,
+    advanceTo,
+    applyState,
+  };
+}

@@ -1,0 +1,128 @@
+/**
+ * The state of one element's drying model: plain numbers and typed arrays, so a member of an
+ * ensemble is copied with {@link cloneElementState} in microseconds and a snapshot for restart
+ * is a small JSON object ({@link serialiseElementState}, versioned).
+ */
+import type { TransportState } from './stepController.ts';
+
+/** Version of the snapshot layout written by {@link serialiseElementState}. */
+export const ELEMENT_STATE_VERSION = 1;
+
+/** Everything that evolves in time; the configuration lives in the model, not here. */
+export interface ElementState {
+  /** Moisture transport: time (s since placement), pressures, ledger, step control. */
+  transport: TransportState;
+  /** Equivalent age at 20 degC of each cell, s (ASTM C1074). */
+  equivalentAgeS: Float64Array;
+  /** Temperature of each cell at the last boundary inputs, K. */
+  temperatureK: Float64Array;
+  /** Pore-diameter factor applied in each cell (refinement), (0, 1]. */
+  diameterScale: Float64Array;
+  /** Specific storage applied in each cell, 1/Pa (physics.md section 3). */
+  specificStoragePerPa: Float64Array;
+  /** Bleed-water film on the surface, kg/m2. */
+  bleedFilmKgM2: number;
+  /** Water bled to the surface since placement, kg/m2. */
+  bledKgM2: number;
+  /** Water evaporated from the surface (film and pores) since placement, kg/m2. */
+  evaporatedKgM2: number;
+  /** Water taken up from a wet covering or ponding since placement, kg/m2. */
+  coveringUptakeKgM2: number;
+  /** Evaporation rate over the last accepted step, kg/(m2 s). */
+  lastEvaporationKgM2s: number;
+  /** Potential (wet-surface) evaporation rate over the last step, kg/(m2 s). */
+  lastPotentialEvaporationKgM2s: number;
+}
+
+/** JSON form of an {@link ElementState}. */
+export interface ElementStateSnapshot {
+  version: number;
+  transport: Omit<TransportState, 'pressurePa'> & { pressurePa: number[] };
+  equivalentAgeS: number[];
+  temperatureK: number[];
+  diameterScale: number[];
+  specificStoragePerPa: number[];
+  bleedFilmKgM2: number;
+  bledKgM2: number;
+  evaporatedKgM2: number;
+  coveringUptakeKgM2: number;
+  lastEvaporationKgM2s: number;
+  lastPotentialEvaporationKgM2s: number;
+}
+
+/** Deep copy: new typed arrays, same numbers. */
+export function cloneElementState(state: ElementState): ElementState {
+  return {
+    ...state,
+    transport: { ...state.transport, pressurePa: state.transport.pressurePa.slice() },
+    equivalentAgeS: state.equivalentAgeS.slice(),
+    temperatureK: state.temperatureK.slice(),
+    diameterScale: state.diameterScale.slice(),
+    specificStoragePerPa: state.specificStoragePerPa.slice(),
+  };
+}
+
+/** JSON-ready snapshot (numbers and arrays of numbers only), tagged with the layout version. */
+export function serialiseElementState(state: ElementState): ElementStateSnapshot {
+  return {
+    ...state,
+    version: ELEMENT_STATE_VERSION,
+    transport: { ...state.transport, pressurePa: Array.from(state.transport.pressurePa) },
+    equivalentAgeS: Array.from(state.equivalentAgeS),
+    temperatureK: Array.from(state.temperatureK),
+    diameterScale: Array.from(state.diameterScale),
+    specificStoragePerPa: Array.from(state.specificStoragePerPa),
+  };
+}
+
+/** Raised when a snapshot has another version or the wrong shape. */
+export class SnapshotError extends Error {
+  constructor(message: string) {
+    super(message);
+    this.name = 'SnapshotError';
+  }
+}
+
+/**
+ * Restores a state from {@link serialiseElementState} output. Throws {@link SnapshotError} when the
+ * version differs or the arrays do not match `cellCount`.
+ */
+export function deserialiseElementState(
+  snapshot: ElementStateSnapshot,
+  cellCount: number,
+): ElementState {
+  if (snapshot.version !== ELEMENT_STATE_VERSION) {
+    throw new SnapshotError(
+      `snapshot version must be ${ELEMENT_STATE_VERSION}: got ${String(snapshot.version)}`,
+    );
+  }
+  for (const [field, values] of [
+    ['transport.pressurePa', snapshot.transport.pressurePa],
+    ['equivalentAgeS', snapshot.equivalentAgeS],
+    ['temperatureK', snapshot.temperatureK],
+    ['diameterScale', snapshot.diameterScale],
+    ['specificStoragePerPa', snapshot.specificStoragePerPa],
+  ] as const) {
+    if (values.length !== cellCount) {
+      throw new SnapshotError(
+        `snapshot ${field} must have ${cellCount} values: got ${values.length}`,
+      );
+    }
+  }
+  return {
+    bleedFilmKgM2: snapshot.bleedFilmKgM2,
+    bledKgM2: snapshot.bledKgM2,
+    evaporatedKgM2: snapshot.evaporatedKgM2,
+    coveringUptakeKgM2: snapshot.coveringUptakeKgM2,
+    lastEvaporationKgM2s: snapshot.lastEvaporationKgM2s,
+    lastPotentialEvaporationKgM2s: snapshot.lastPotentialEvaporationKgM2s,
+    transport: {
+      ...snapshot.transport,
+      pressurePa: Float64Array.from(snapshot.transport.pressurePa),
+    },
+    equivalentAgeS: Float64Array.from(snapshot.equivalentAgeS),
+    temperatureK: Float64Array.from(snapshot.temperatureK),
+    diameterScale: Float64Array.from(snapshot.diameterScale),
+    specificStoragePerPa: Float64Array.from(snapshot.specificStoragePerPa),
+  };
+}

@@ -1,0 +1,243 @@
+/**
+ * Hydraulic properties of a porous material for the transport solver, from its pore-size
+ * distribution (physics.md sections 2 and 3): retention from Young-Laplace drainage, capillary
+ * bundle permeability, water viscosity, vapour diffusion through drained pores, and per-cell
+ * scaling for temperature (surface tension) and pore refinement (hydration).
+ *
+ * Scaling rule: in cell i, pore diameters are the fresh ones times `diameterScale[i]` and the
+ * surface tension is gamma(T_i). Young-Laplace is linear in gamma / D, so
+ *   p_i(S) = p_ref(S) / c_i,   c_i = diameterScale_i * gamma_ref / gamma(T_i),
+ * with p_ref the curve at the reference temperature; capillary-bundle permeability scales with
+ * D^2, so k_i(S) = k_ref(S) diameterScale_i^2.
+ */
+import { retentionFromPoreSizes, type PoreRetentionCurve } from '../physics/retention.ts';
+import { equivalentPorePressureCurve } from '../physics/equivalentPorePressure.ts';
+import type { PoreSizeDistribution } from '../physics/retentionCurve.ts';
+import { waterSurfaceTensionNPerM } from '../physics/waterSurfaceTension.ts';
+import { waterViscosityPaS } from '../physics/waterViscosity.ts';
+import { kelvinCoefficientPa } from '../physics/kelvin.ts';
+import { saturationVapourPressurePa } from '../physics/saturationVapourPressure.ts';
+import {
+  capillaryBundlePermeability,
+  type CapillaryBundlePermeability,
+} from '../physics/capillaryBundlePermeability.ts';
+import { GAS_CONSTANT_J_PER_MOL_K, WATER_MOLAR_MASS_KG_PER_MOL } from '../physics/units.ts';
+import type { CellHydraulics } from './hydraulics.ts';
+
+/** Options of {@link createPoreHydraulics}. */
+export interface PoreHydraulicsOptions {
+  /** Pore-size distribution of the material as placed (fresh). */
+  poreSizes: PoreSizeDistribution;
+  /** Porosity phi, 0..1. */
+  porosity: number;
+  /** Tortuosity tau >= 1 of the capillary bundle and of vapour paths. */
+  tortuosity: number;
+  /**
+   * Multiplier on the permeability, default 1. The calibration (physics.md section 8) adjusts
+   * its logarithm; a measured saturated permeability sets it at the edge.
+   */
+  permeabilityMultiplier?: number;
+  /** Vapour diffusion through drained pores, default true (physics.md section 3). */
+  vapourDiffusion?: boolean;
+  /**
+   * Diffusivity of water vapour in air, m2/s, default 2.5e-5 (about 20 degC and 1 atm; from
+   * memory, e.g. Massman (1998) gives 2.18e-5 at 0 degC scaling with T^1.81).
+   */
+  vapourDiffusivityM2s?: number;
+  /** Reference temperature of the curve, K; default 293.15 (20 degC, our choice). */
+  referenceTemperatureK?: number;
+  /** Liquid density used to turn vapour mass flux into liquid volume, kg/m3; default 998.2. */
+  liquidDensityKgPerM3?: number;
+  /** Number of cells. */
+  cellCount: number;
+}
+
+/** Pore hydraulics with per-cell temperature and refinement; call a refresh after changes. */
+export interface PoreHydraulics extends CellHydraulics {
+  readonly retention: PoreRetentionCurve;
+  readonly permeability: CapillaryBundlePermeability;
+  /** Temperature of each cell, K (write, then refresh). */
+  readonly temperatureK: Float64Array;
+  /** Factor on the fresh pore diameters of each cell, (0, 1] (write, then refresh). */
+  readonly diameterScale: Float64Array;
+  /** c_i = diameterScale_i gamma_ref / gamma(T_i): p_ref = p c_i (derived). */
+  readonly pressureScale: Float64Array;
+  /**
+   * Specific storage per cell, 1/Pa (writable). It acts while the cell is saturated
+   * (p > p_ae): the storage water is S_s max(p, p_ae), so the storage term keeps the saturated
+   * zone well posed without letting a soft skeleton release water without bound once the pores
+   * drain (our assumption, physics.md section 3).
+   */
+  readonly specificStoragePerPa: Float64Array;
+  /** Recomputes every coefficient after `temperatureK` (and `diameterScale`) changed. */
+  refreshTemperature(): void;
+  /** Recomputes the refinement-dependent coefficients after only `diameterScale` changed. */
+  refreshScale(): void;
+  /** Saturation of cell i at liquid pressure p, 0..1. */
+  saturationAt(cell: number, pressurePa: number): number;
+  /** Water content theta of cell i at liquid pressure p, m3/m3 (phi S + S_s max(p, p_ae)). */
+  waterContentAt(cell: number, pressurePa: number): number;
+  /**
+   * Liquid pressure (Pa) at which cell i holds water content theta (Newton on the forward curve
+   * from `guessPa`, exact to rounding); theta above the saturated range gives p > 0.
+   */
+  pressureForWaterContent(cell: number, waterContent: number, guessPa: number): number;
+  /** Equivalent pore pressure pi of cell i at liquid pressure p, Pa (Coussy 2004). */
+  equivalentPorePressurePa(cell: number, pressurePa: number): number;
+  /** Air-entry pressure of cell i, Pa (< 0). */
+  airEntryPressurePa(cell: number): number;
+  /** Pore relative humidity of cell i at liquid pressure p (Kelvin), fraction. */
+  relativeHumidity(cell: number, pressurePa: number): number;
+}
+
+/**
+ * Builds the hydraulics of a material on a grid of `cellCount` cells, all at the reference
+ * temperature with fresh pores until the caller writes `temperatureK` / `diameterScale` and
+ * calls `refreshTemperature()`.
+ *
+ * K_i(p) = k_ref(S) s_i^2 m / eta(T_i) + (D_air / tau) phi (1 - S) rho_v(T_i, h) / (rho_w A(T_i)),
+ * with A = rho_w R T / M_w the Kelvin coefficient (dh/dp = h / A) and rho_v = h p_sat M_w / (R T).
+ * Temperatures outside the water-property ranges give NaN coefficients (the element model
+ * refuses freezing temperatures at its edge).
+ */
+export function createPoreHydraulics(options: PoreHydraulicsOptions): PoreHydraulics {
+  const n = options.cellCount;
+  const referenceK = options.referenceTemperatureK ?? 293.15;
+  const referenceTension = waterSurfaceTensionNPerM(referenceK);
+  const retention = retentionFromPoreSizes(options.poreSizes, referenceTension);
+  const permeability = capillaryBundlePermeability(retention, {
+    porosity: options.porosity,
+    tortuosity: options.tortuosity,
+  });
+  const equivalentPressure = equivalentPorePressureCurve(retention);
+  const multiplier = options.permeabilityMultiplier ?? 1;
+  const vapourOn = options.vapourDiffusion ?? true;
+  const airDiffusivity = options.vapourDiffusivityM2s ?? 2.5e-5;
+  const liquidDensity = options.liquidDensityKgPerM3 ?? 998.2;
+  const specificStoragePerPa = new Float64Array(n);
+  const temperatureK = new Float64Array(n).fill(referenceK);
+  const diameterScale = new Float64Array(n).fill(1);
+  const pressureScale = new Float64Array(n).fill(1);
+  const tensionRatio = new Float64Array(n); // gamma_ref / gamma(T)
+  const inverseViscosity = new Float64Array(n); // 1 / eta(T)
+  const liquidFactor = new Float64Array(n); // s^2 m / eta
+  const vapourFactor = new Float64Array(n); // (D/tau) phi p_sat M / (R T rho_w A)
+  const inverseKelvin = new Float64Array(n); // 1 / A
+  const airEntryRef = retention.airEntryPressurePa;
+
+  const refreshScale = (): void => {
+    for (let i = 0; i < n; i += 1) {
+      const scale = diameterScale[i] as number;
+      pressureScale[i] = scale * (tensionRatio[i] as number);
+      liquidFactor[i] = scale * scale * multiplier * (inverseViscosity[i] as number);
+    }
+  };
+  const computedForK = new Float64Array(n).fill(Number.NaN);
+  const refreshTemperature = (): void => {
+    for (let i = 0; i < n; i += 1) {
+      const temperature = temperatureK[i] as number;
+      // The water properties are costly (IAPWS): recompute only cells whose temperature moved.
+      if (temperature === computedForK[i]) continue;
+      computedForK[i] = temperature;
+      tensionRatio[i] = referenceTension / waterSurfaceTensionNPerM(temperature);
+      inverseViscosity[i] = 1 / waterViscosityPaS(temperature);
+      const kelvinPa = kelvinCoefficientPa(temperature);
+      inverseKelvin[i] = 1 / kelvinPa;
+      vapourFactor[i] = vapourOn
+        ? ((airDiffusivity / options.tortuosity) *
+            options.porosity *
+            saturationVapourPressurePa(temperature) *
+            WATER_MOLAR_MASS_KG_PER_MOL) /
+          (GAS_CONSTANT_J_PER_MOL_K * temperature * liquidDensity * kelvinPa)
+        : 0;
+    }
+    refreshScale();
+  };
+  refreshTemperature();
+
+  const waterContent = (cell: number, pressurePa: number): number => {
+    const scale = pressureScale[cell] as number;
+    const reference = pressurePa * scale;
+    const storageCoefficient = specificStoragePerPa[cell] as number;
+    return reference < airEntryRef
+      ? options.porosity * retention.saturation(reference) +
+          (storageCoefficient * airEntryRef) / scale
+      : options.porosity + storageCoefficient * pressurePa;
+  };
+
+  return {
+    retention,
+    permeability,
+    specificStoragePerPa,
+    temperatureK,
+    diameterScale,
+    pressureScale,
+    refreshTemperature,
+    refreshScale,
+    saturationAt(cell, pressurePa) {
+      return retention.saturation(pressurePa * (pressureScale[cell] as number));
+    },
+    waterContentAt(cell, pressurePa) {
+      return waterContent(cell, pressurePa);
+    },
+    pressureForWaterContent(cell, target, guessPa) {
+      let pressure = guessPa;
+      for (let iteration = 0; iteration < 50; iteration += 1) {
+        const scale = pressureScale[cell] as number;
+        const reference = pressure * scale;
+        const capacity =
+          reference < airEntryRef
+            ? options.porosity * retention.capacityPerPa(reference) * scale
+            : (specificStoragePerPa[cell] as number);
+        const residual = target - waterContent(cell, pressure);
+        if (!(capacity > 0) || Math.abs(residual) <= 1e-15 * Math.abs(target)) break;
+        let next = pressure + residual / capacity;
+        // Keep suction growth bounded per iteration (the curve is steep in ln p).
+        if (next < 10 * Math.min(pressure, -1000)) next = 10 * Math.min(pressure, -1000);
+        if (next > 0 && pressure < 0 && reference < airEntryRef) next = 0.5 * pressure;
+        pressure = next;
+      }
+      return pressure;
+    },
+    equivalentPorePressurePa(cell, pressurePa) {
+      const scale = pressureScale[cell] as number;
+      return equivalentPressure.fromLiquidPressure(pressurePa * scale) / scale;
+    },
+    evaluate(pressurePa, water, capacityPerPa, conductivity, storageContent) {
+      for (let i = 0; i < n; i += 1) {
+        const pressure = pressurePa[i] as number;
+        const scale = pressureScale[i] as number;
+        const storageCoefficient = specificStoragePerPa[i] as number;
+        const reference = pressure * scale;
+        let s = 1;
+        let stored: number;
+        if (reference < airEntryRef) {
+          s = retention.saturation(reference);
+          capacityPerPa[i] = options.porosity * retention.capacityPerPa(reference) * scale;
+          stored = (storageCoefficient * airEntryRef) / scale;
+        } else {
+          capacityPerPa[i] = storageCoefficient;
+          stored = storageCoefficient * pressure;
+        }
+        water[i] = options.porosity * s + stored;
+        if (storageContent !== undefined) storageContent[i] = stored;
+        let value = permeability.permeabilityAtPressureM2(reference) * (liquidFactor[i] as number);
+        if (s < 1) {
+          // Kelvin h = exp(p / A) inline: this loop runs for every cell in every iteration.
+          value +=
+            (vapourFactor[i] as number) *
+            (1 - s) *
+            Math.exp(Math.min(0, pressure) * (inverseKelvin[i] as number));
+        }
+        conductivity[i] = value;
+      }
+    },
+    airEntryPressurePa(cell) {
+      return airEntryRef / (pressureScale[cell] as number);
+    },
+    relativeHumidity(cell, pressurePa) {
+      // Kelvin: h = exp(p / A(T)) with A cached per cell by refreshTemperature().
+      return Math.exp(pressurePa * (inverseKelvin[cell] as number));
+    },
+  };
+}

@@ -1,0 +1,72 @@
+/**
+ * The exposed surface's evaporation as a function of the surface pore humidity, from the
+ * boundary inputs and the curing measures (physics.md section 4). Composes the physics library:
+ * Uno's formula with the falling-rate extension (evaporation.ts) and the measure rules
+ * (curingMeasures.ts).
+ */
+import { evaporationFluxKgM2s } from '../physics/evaporation.ts';
+import { curingBoundaryInputs, type CuringMeasureOptions } from '../physics/curingMeasures.ts';
+import { msToKmh, kmhToMs } from '../physics/units.ts';
+import type { BoundaryInputs } from './boundaryInputs.ts';
+
+/** Options of the surface evaporation. */
+export interface SurfaceEvaporationOptions {
+  /** Multiplier on the evaporation estimate (calibrated exposure), default 1 (our assumption). */
+  exposureMultiplier?: number;
+  /** Allow condensation onto the surface (negative evaporation), default false (physics.md 4). */
+  allowCondensation?: boolean;
+  /** Defaults of curing measures that do not carry their own figures. */
+  curing?: CuringMeasureOptions;
+}
+
+/** Evaporation at the surface over one interval. */
+export interface SurfaceEvaporation {
+  /** True while a wet covering or ponding holds the surface saturated (no evaporation). */
+  heldSaturated: boolean;
+  /** Evaporation rate from a wet surface (h_s = 1), kg/(m2 s), after measures. */
+  potentialKgM2s: number;
+  /**
+   * Evaporation rate at surface pore humidity h (0..1), kg/(m2 s), after measures:
+   * E(h) = m [E_0 + h (E_1 - E_0)] where E_h is Uno's estimate (or the measured rate scaled by
+   * the estimate's falling-rate ratio), clamped at 0 unless condensation is allowed.
+   */
+  rateKgM2s(surfaceHumidity: number): number;
+}
+
+/**
+ * Builds the evaporation of one interval. Uno's formula is linear in the surface humidity h_s,
+ * so it is evaluated at h_s = 1 and h_s = 0 once and interpolated. A measured rate replaces the
+ * wet-surface estimate and keeps the estimate's falling-rate shape (our assumption: the pan
+ * measures a free water surface). Curing compounds multiply, fogging raises the humidity,
+ * windbreaks scale the wind (curingBoundaryInputs). Source: Uno (1998); physics.md section 4.
+ */
+export function surfaceEvaporation(
+  inputs: BoundaryInputs,
+  options: SurfaceEvaporationOptions = {},
+): SurfaceEvaporation {
+  const effective = curingBoundaryInputs(
+    inputs.activeMeasures ?? [],
+    { windKmH: msToKmh(inputs.windMS), relativeHumidity: inputs.relativeHumidity },
+    options.curing ?? {},
+  );
+  const allowCondensation = options.allowCondensation ?? false;
+  const weather = {
+    airTemperatureK: inputs.airTemperatureK,
+    concreteTemperatureK: inputs.surfaceTemperatureK,
+    relativeHumidity: effective.relativeHumidity,
+    windMS: kmhToMs(effective.windKmH),
+  };
+  const wet = evaporationFluxKgM2s(weather, { surfacePoreHumidity: 1, allowCondensation: true });
+  const dry = evaporationFluxKgM2s(weather, { surfacePoreHumidity: 0, allowCondensation: true });
+  const measured = inputs.measuredEvaporationKgM2s;
+  const scale =
+    (options.exposureMultiplier ?? 1) *
+    effective.fluxMultiplier *
+    (measured === undefined ? 1 : wet > 0 ? measured / wet : 0);
+  const rateKgM2s = (surfaceHumidity: number): number => {
+    if (effective.heldSaturated) return 0;
+    const rate = scale * (dry + surfaceHumidity * (wet - dry));
+    return allowCondensation ? rate : Math.max(0, rate);
+  };
+  return { heldSaturated: effective.heldSaturated, potentialKgM2s: rateKgM2s(1), rateKgM2s };
+}
