@@ -30,6 +30,18 @@ describe.each(names)('equivalentPorePressurePa() for %s', (name) => {
   );
 });
 
+describe('equivalentPorePressureCurve() fast form', () => {
+  it.each(names)('stays within 1e-7 of the accurate form for %s (stated accuracy)', (name) => {
+    const psd = distributions[name].psd;
+    const curve = equivalentPorePressureCurve(retentionFromPoreSizes(psd, gamma));
+    for (let i = 1; i < 400; i++) {
+      const saturation = (i / 400) ** 1.5;
+      const accuratePa = equivalentPorePressurePa(psd, saturation, gamma);
+      expect(Math.abs(curve.fromSaturation(saturation) / accuratePa - 1)).toBeLessThan(1e-7);
+    }
+  });
+});
+
 describe('equivalentPorePressurePa() closed forms and limits', () => {
   // Single pore size D0 (a log-normal mode with gsd -> 1): F is a step at D0, so p(s) = p0 =
   // -4 gamma / D0 for every s in (0, 1] and pi(S) = S p0 + (1 - S) p0 = p0, whatever S.

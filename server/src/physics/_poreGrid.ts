@@ -14,11 +14,11 @@ import {
   poreVolumeDensityPerLogDiameter,
 } from './poreSizeDistribution.ts';
 import {
+  gaussLegendre5,
   hermiteDerivative,
   hermiteValue,
   limitSlopesMonotone,
   lowerIndex,
-  solveIncreasing,
 } from './_poreNumerics.ts';
 
 /** Fraction below which the unbounded forms leave the grid and use the exact functions. */
@@ -192,13 +192,67 @@ export function gridLogDiameter(grid: PoreGrid, fraction: number): number {
   while (index > 0 && (f[index] as number) >= fraction) index--;
   while (index < f.length - 1 && (f[index + 1] as number) < fraction) index++;
   const low = grid.logDiameters[index] as number;
-  const high = grid.logDiameters[Math.min(index + 1, f.length - 1)] as number;
-  if ((f[index] as number) >= fraction) return low;
-  return solveIncreasing(
-    (u) => gridInterpolate(grid, grid.fractions, grid.slopes, u) - fraction,
-    low,
-    high,
-    1e-12 * Math.max(1, Math.abs(low)),
-    (u) => gridDensity(grid, u),
-  );
+  if (index >= f.length - 1 || (f[index] as number) >= fraction) return low;
+  const h = (grid.logDiameters[index + 1] as number) - low;
+  const y0 = f[index] as number;
+  const y1 = f[index + 1] as number;
+  const d0 = grid.slopes[index] as number;
+  const d1 = grid.slopes[index + 1] as number;
+  // Safeguarded Newton on the monotone Hermite piece in t = (u - low) / h, from the linear guess.
+  let a = 0;
+  let b = 1;
+  let t = (fraction - y0) / (y1 - y0);
+  for (let iteration = 0; iteration < 60; iteration++) {
+    const residual = hermiteValue(t, h, y0, y1, d0, d1) - fraction;
+    if (residual >= 0) b = t;
+    else a = t;
+    const slope = hermiteDerivative(t, h, y0, y1, d0, d1) * h;
+    let next = slope > 0 ? t - residual / slope : Number.NaN;
+    if (!(next >= a && next <= b)) next = 0.5 * (a + b);
+    const converged = Math.abs(next - t) < 1e-13;
+    t = next;
+    if (converged || b - a < 1e-13) break;
+  }
+  return low + t * h;
+}
+
+/**
+ * integral_a^b f(u) du by five-point Gauss-Legendre on [a, b] split at the distribution's
+ * breakpoints (table knots), for a <= b no wider than a grid interval or two: the pieces are
+ * smooth there, so the rule is accurate to rounding.
+ */
+export function integratePanel(
+  grid: PoreGrid,
+  f: (u: number) => number,
+  a: number,
+  b: number,
+): number {
+  if (!(b > a)) return 0;
+  let sum = 0;
+  let start = a;
+  for (const breakpoint of grid.breakpoints) {
+    if (breakpoint <= start) continue;
+    if (breakpoint >= b) break;
+    sum += gaussLegendre5(f, start, breakpoint);
+    start = breakpoint;
+  }
+  return sum + gaussLegendre5(f, start, b);
+}
+
+/**
+ * Fast evaluation of a tabulated integral at u: Hermite on the grid for smooth distributions;
+ * for tables the node value below u plus `integratePanel` of its derivative (their knots would
+ * otherwise cost accuracy). u must lie inside the grid.
+ */
+export function gridIntegralAt(
+  grid: PoreGrid,
+  values: readonly number[],
+  slopes: readonly number[],
+  derivative: (u: number) => number,
+  u: number,
+): number {
+  if (grid.psd.kind !== 'table') return gridInterpolate(grid, values, slopes, u);
+  const { index } = gridLocate(grid, u);
+  const start = grid.logDiameters[index] as number;
+  return (values[index] as number) + integratePanel(grid, derivative, start, u);
 }

@@ -128,6 +128,7 @@ export function lowerIndex(values: ArrayLike<number>, target: number): number {
  * when a derivative is given and the step stays inside the bracket, bisection otherwise
  * (the safeguarded Newton of Press et al., Numerical Recipes, 3rd ed., section 9.4).
  * Returns the smallest x found with g(x) >= 0 to within `tolerance` (absolute, in x).
+ * `initialGuess` (inside the bracket) replaces the midpoint as the first iterate.
  */
 export function solveIncreasing(
   g: (x: number) => number,
@@ -135,10 +136,14 @@ export function solveIncreasing(
   high: number,
   tolerance: number,
   derivative?: (x: number) => number,
+  initialGuess?: number,
 ): number {
   let a = low;
   let b = high;
-  let x = 0.5 * (a + b);
+  let x =
+    initialGuess !== undefined && initialGuess > a && initialGuess < b
+      ? initialGuess
+      : 0.5 * (a + b);
   for (let iteration = 0; iteration < 200 && b - a > tolerance; iteration++) {
     const value = g(x);
     if (value >= 0) b = x;
@@ -146,7 +151,7 @@ export function solveIncreasing(
     if (derivative !== undefined) {
       const slope = derivative(x);
       const next = slope > 0 ? x - value / slope : Number.NaN;
-      if (next > a && next < b) {
+      if (next >= a && next <= b) {
         if (Math.abs(next - x) < tolerance) return next;
         x = next;
         continue;

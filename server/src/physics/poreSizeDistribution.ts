@@ -255,6 +255,9 @@ function tableInverse(knots: TableKnots, fraction: number): number {
     x[k] as number,
     1e-13 * Math.max(1, Math.abs(x[k] as number)),
     (value) => tableAt(knots, value, true),
+    (x[k - 1] as number) +
+      (((x[k] as number) - (x[k - 1] as number)) * (target - (y[k - 1] as number))) /
+        ((y[k] as number) - (y[k - 1] as number)),
   );
   return Math.exp(u);
 }
