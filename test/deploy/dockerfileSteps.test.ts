@@ -1,0 +1,96 @@
+/**
+ * The Dockerfile's build and start, exercised as plain shell steps (no Docker engine runs on this
+ * machine kind): its COPY sources are copied into an empty folder, its `npm` RUN steps run there,
+ * and its CMD starts the server with the Dockerfile's ENV (port and data folder moved to the
+ * test's own). This proves the image's production-only install is enough to serve.
+ * Skipped step: the apt-get RUN line (python3, make, g++ for the native addon), which this
+ * machine already has for `npm ci`.
+ */
+import { execSync, spawn, type ChildProcess } from 'node:child_process';
+import { cpSync, mkdtempSync, readFileSync, rmSync } from 'node:fs';
+import { createServer } from 'node:net';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { afterAll, expect, it } from 'vitest';
+
+const repo = new URL('../../', import.meta.url);
+const dockerfile = readFileSync(new URL('Dockerfile', repo), 'utf8').replace(/\\\n\s*/g, ' ');
+
+let imageDir = '';
+let server: ChildProcess | undefined;
+
+async function freePort(): Promise<number> {
+  return new Promise((resolve, reject) => {
+    const probe = createServer();
+    probe.once('error', reject);
+    probe.listen(0, '127.0.0.1', () => {
+      const address = probe.address();
+      probe.close(() => resolve(typeof address === 'object' && address ? address.port : 0));
+    });
+  });
+}
+
+afterAll(() => {
+  server?.kill('SIGKILL');
+  if (imageDir !== '') rmSync(imageDir, { recursive: true, force: true });
+});
+
+it(
+  'Dockerfile steps install production dependencies and start a serving server',
+  { timeout: 600_000 },
+  async () => {
+    imageDir = mkdtempSync(join(tmpdir(), 'meniscus-image-'));
+    const steps = dockerfile.split('\n').filter((line) => /^(COPY|RUN npm|ENV|CMD) /.test(line));
+    let environment: Record<string, string> = {};
+    let command: string[] = [];
+    for (const step of steps) {
+      const [instruction = '', ...rest] = step.split(' ');
+      if (instruction === 'COPY') {
+        const sources = rest.slice(0, -1);
+        for (const source of sources)
+          cpSync(new URL(source, repo), join(imageDir, source), { recursive: true });
+      } else if (instruction === 'RUN') {
+        execSync(rest.join(' '), {
+          cwd: imageDir,
+          stdio: 'ignore',
+          env: { ...process.env, CI: 'true' },
+        });
+      } else if (instruction === 'ENV') {
+        for (const pair of rest.join(' ').match(/\w+=\S+/g) ?? []) {
+          const [name = '', value = ''] = pair.split('=');
+          environment[name] = value;
+        }
+      } else {
+        command = JSON.parse(rest.join(' ')) as string[];
+      }
+    }
+    expect(command[0]).toBe('node');
+    const httpPort = await freePort();
+    environment = {
+      ...environment,
+      MENISCUS_HTTP_HOST: '127.0.0.1',
+      MENISCUS_HTTP_PORT: String(httpPort),
+      MENISCUS_MQTT_PORT: String(await freePort()),
+      MENISCUS_DATA_DIR: join(imageDir, 'data'),
+    };
+    server = spawn(process.execPath, command.slice(1), {
+      cwd: imageDir,
+      env: { PATH: process.env.PATH ?? '', ...environment },
+      stdio: 'ignore',
+    });
+    const health = await (async () => {
+      const deadline = Date.now() + 30_000;
+      for (;;) {
+        try {
+          return await fetch(`http://127.0.0.1:${httpPort}/api/health`);
+        } catch (error) {
+          if (Date.now() > deadline) throw error;
+          await new Promise((resolve) => setTimeout(resolve, 200));
+        }
+      }
+    })();
+    expect(health.status).toBe(200);
+    const body = (await health.json()) as { archive: { ok: boolean } };
+    expect(body.archive.ok).toBe(true);
+  },
+);
