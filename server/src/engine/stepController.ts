@@ -23,6 +23,8 @@ export interface StepControlOptions extends ImplicitStepOptions {
   growthFactor?: number;
   /** Iterations at or below which a step counts as easy; default 10 (Newton converges in 3 to 8 iterations on easy steps; Picard needs 15 to 20 at dry surfaces whatever the step, so raise it when using Picard). */
   easyIterations?: number;
+  /** Picard iterations allowed when a Newton step fails, before the step is cut; default 60. */
+  picardFallbackIterations?: number;
   /** Step reduction after a failed step; default 0.3. */
   cutFactor?: number;
   /**
@@ -90,6 +92,7 @@ export function advanceTransport(
   const growthFactor = options.growthFactor ?? 1.5;
   const easyIterations = options.easyIterations ?? 10;
   const cutFactor = options.cutFactor ?? 0.3;
+  const picardFallbackIterations = options.picardFallbackIterations ?? 60;
   const elapsedFraction = options.maxStepFractionOfElapsed ?? Number.POSITIVE_INFINITY;
   const timeOriginS = options.timeOriginS ?? 0;
   const next = new Float64Array(grid.cellCount);
@@ -103,16 +106,26 @@ export function advanceTransport(
     const stepS =
       plannedS >= remaining || remaining - plannedS < 0.1 * plannedS ? remaining : plannedS;
     const endS = state.timeS + stepS;
-    const result = implicitStep(
+    const surface = surfaceAt(endS);
+    let result = implicitStep(
       grid,
       hydraulics,
       workspace,
       state.pressurePa,
       next,
       stepS,
-      surfaceAt(endS),
+      surface,
       options,
     );
+    if (!result.converged && (options.linearisation ?? 'newton') === 'newton') {
+      // Newton can cycle where the curves have kinks (air entry, fully drained pores); the
+      // Picard iteration is slower but monotone there, so it gets one try before the step is cut.
+      result = implicitStep(grid, hydraulics, workspace, state.pressurePa, next, stepS, surface, {
+        ...options,
+        linearisation: 'picard',
+        maxIterations: picardFallbackIterations,
+      });
+    }
     if (!result.converged) {
       state.rejectedSteps += 1;
       state.nextStepS = stepS * cutFactor;

@@ -1,0 +1,189 @@
+import { describe, expect, it } from 'vitest';
+import { BoundaryInputError } from '../../server/src/engine/boundaryInputs.ts';
+import {
+  HOUR_S,
+  dailyWeather,
+  measure,
+  modelOf,
+  run,
+  steadyWeather,
+  waterHeldM,
+} from './_scenarios.ts';
+
+describe('element model mass balance (physics.md section 3: closes to 1e-8)', () => {
+  const model = modelOf('normal-concrete', 0.15, 'one-face', { initialBleedFilmKgM2: 0.2 });
+  const initialHeld = waterHeldM(model, { state: model.initialState() });
+  const measures = [
+    measure('curing-compound', 3, 6, { efficiency: 0.7 }),
+    measure('wet-covering', 8, 10),
+    measure('fogging', 12, 14),
+    measure('windbreak', 14, 20),
+  ];
+  const result = run(model, dailyWeather(1), 24, measures);
+  const state = result.state;
+
+  it('change of water held equals the water that crossed the surface over 24 h of changing weather', () => {
+    const held = waterHeldM(model, result);
+    const inflow = state.transport.surfaceInflowM;
+    expect(inflow).toBeLessThan(0);
+    expect(Math.abs(held - initialHeld - inflow) / Math.abs(inflow)).toBeLessThan(1e-8);
+  });
+
+  it('evaporation, bleeding, film and covering water add up to the same balance', () => {
+    const density = model.liquidDensityKgPerM3;
+    const expected =
+      state.bledKgM2 -
+      (state.bleedFilmKgM2 - 0.2) -
+      state.transport.surfaceInflowM * density +
+      state.coveringUptakeKgM2;
+    expect(Math.abs(state.evaporatedKgM2 - expected) / state.evaporatedKgM2).toBeLessThan(1e-8);
+  });
+
+  it('reports the water supplied by the specific storage, smaller than the water lost', () => {
+    expect(Number.isFinite(state.transport.storageWaterM)).toBe(true);
+    expect(Math.abs(state.transport.storageWaterM)).toBeLessThan(
+      Math.abs(state.transport.surfaceInflowM),
+    );
+  });
+});
+
+describe('element model behaviour', () => {
+  // Near-surface steepness: saturation at 10 mm depth minus saturation at the surface.
+  const steepness = (
+    permeabilityMultiplier: number,
+    weather: ReturnType<typeof steadyWeather>,
+  ): number => {
+    const model = modelOf('cement-mortar-fine', 0.05, 'one-face', { permeabilityMultiplier });
+    const result = run(model, weather, 6, [], [6]);
+    const profile = result.profiles[0]?.profiles;
+    if (profile === undefined) throw new Error('no profile');
+    const deepIndex = profile.depthM.findIndex((depth) => depth >= 0.01);
+    return (profile.saturation[deepIndex] ?? Number.NaN) - (profile.saturation[0] ?? Number.NaN);
+  };
+
+  it.each([
+    ['fast evaporation against low permeability', 0.1, steadyWeather(35, 0.3, 8), 'steeper'],
+    ['slow evaporation against high permeability', 10, steadyWeather(20, 0.8, 0.5), 'flatter'],
+  ])('profiles: %s', (_label, multiplier, weather, expected) => {
+    const reference = steepness(1, steadyWeather(25, 0.5, 3));
+    const value = steepness(multiplier, weather);
+    if (expected === 'steeper') expect(value).toBeGreaterThan(reference);
+    else expect(value).toBeLessThan(reference);
+  });
+
+  it('a bleed film delays the drying of the surface', () => {
+    const firstDryH = (film: number): number => {
+      const model = modelOf('normal-concrete', 0.1, 'one-face', { initialBleedFilmKgM2: film });
+      const result = run(model, steadyWeather(30, 0.4, 5), 8);
+      const first = result.series.find((figures) => figures.surfaceSaturation < 0.99);
+      return (first?.timeS ?? Number.POSITIVE_INFINITY) / HOUR_S;
+    };
+    expect(firstDryH(1.0)).toBeGreaterThan(firstDryH(0) + 0.5);
+  });
+
+  it('wet covering stops drying while it is in place, and drying resumes once it is removed', () => {
+    const model = modelOf('cement-mortar-fine', 0.05);
+    const covered = run(model, steadyWeather(30, 0.4, 5), 12, [measure('wet-covering', 0, 6)]);
+    const atSix = covered.series.find((figures) => figures.timeS === 6 * HOUR_S);
+    expect(atSix?.waterLossKgM2).toBe(0);
+    expect(atSix?.surfaceSaturation).toBe(1);
+    expect(covered.waterLossKgM2).toBeGreaterThan(0.1);
+  });
+
+  it('a curing compound lowers the peak surface stress, more the more efficient it is', () => {
+    const peaks = [0, 0.5, 0.9].map((efficiency) => {
+      const model = modelOf('cement-mortar-fine', 0.05);
+      const measures = efficiency > 0 ? [measure('curing-compound', 0, 48, { efficiency })] : [];
+      return run(model, steadyWeather(30, 0.4, 5), 12, measures).maxSurfaceStressPa;
+    });
+    expect(peaks[1]).toBeLessThan(peaks[0] ?? Number.NaN);
+    expect(peaks[2]).toBeLessThan(peaks[1] ?? Number.NaN);
+  });
+
+  // Common practice (physics.md section 5, not a published source): under harsh drying a
+  // coarse-pored stone stays near 0.1 MPa, a fine-pored mortar passes its ~3 MPa tensile strength.
+  it('coarse stone stays near 0.1 MPa under harsh drying (common practice)', () => {
+    const stone = run(modelOf('building-stone-coarse', 0.05), steadyWeather(35, 0.3, 8), 24);
+    expect(stone.maxSurfaceStressPa).toBeLessThan(0.2e6);
+  });
+
+  it('fine mortar passes its 28-day tensile strength under harsh drying (common practice)', () => {
+    const model = modelOf('cement-mortar-fine', 0.05);
+    const mortar = run(model, steadyWeather(35, 0.3, 8), 24);
+    const fctm28Pa = (model.material.mix?.strength.fctmMPa ?? Number.NaN) * 1e6;
+    expect(mortar.maxSurfaceStressPa).toBeGreaterThan(fctm28Pa);
+  });
+});
+
+describe('element model robustness', () => {
+  const finiteRun = (result: ReturnType<typeof run>): void => {
+    for (const figures of result.series) {
+      expect(Number.isFinite(figures.surfaceStressPa)).toBe(true);
+      expect(Number.isFinite(figures.surfaceSaturation)).toBe(true);
+    }
+  };
+
+  it('bridges a 10 h gap in the weather record', () => {
+    const weather = [
+      ...steadyWeather(25, 0.5, 3),
+      ...steadyWeather(30, 0.35, 6).map((sample) => ({ ...sample, timeS: 10 * HOUR_S })),
+    ];
+    finiteRun(run(modelOf('normal-concrete', 0.1), weather, 12));
+  });
+
+  it('takes a step change in wind from calm to 40 km/h and evaporates faster after it', () => {
+    const [calm] = steadyWeather(25, 0.5, 0);
+    if (calm === undefined) throw new Error('no weather');
+    const weather = [
+      calm,
+      { ...calm, timeS: 3 * HOUR_S },
+      { ...calm, timeS: 3 * HOUR_S + 1, windMS: 40 / 3.6 },
+    ];
+    const result = run(modelOf('cement-mortar-fine', 0.05), weather, 6);
+    finiteRun(result);
+    const before =
+      result.series.find((figures) => figures.timeS === 2 * HOUR_S)?.potentialEvaporationKgM2s ?? 0;
+    const after =
+      result.series.find((figures) => figures.timeS === 4 * HOUR_S)?.potentialEvaporationKgM2s ?? 0;
+    expect(after).toBeGreaterThan(2 * before);
+  });
+
+  it('dries slowly without wind (Uno keeps a still-air term)', () => {
+    const result = run(modelOf('cement-mortar-fine', 0.05), steadyWeather(25, 0.5, 0), 6);
+    finiteRun(result);
+    expect(result.waterLossKgM2).toBeGreaterThan(0);
+  });
+
+  it('does not dry at 100 % humidity with air and concrete at one temperature', () => {
+    const result = run(modelOf('cement-mortar-fine', 0.05), steadyWeather(20, 1, 3), 6);
+    expect(result.waterLossKgM2).toBe(0);
+    expect(result.series.at(-1)?.surfaceSaturation).toBe(1);
+  });
+
+  it('refuses concrete below 0 degC with a message naming the field and the rule', () => {
+    const model = modelOf('normal-concrete', 0.1);
+    const state = model.initialState();
+    const inputs = {
+      airTemperatureK: 268.15,
+      relativeHumidity: 0.8,
+      windMS: 2,
+      surfaceTemperatureK: 271.15,
+    };
+    expect(() => model.advanceTo(state, HOUR_S, inputs)).toThrow(BoundaryInputError);
+    expect(() => model.advanceTo(state, HOUR_S, inputs)).toThrow(
+      /surfaceTemperatureK must be at or above 0 degC.*freezing.*got 271.15/,
+    );
+  });
+
+  it('runs 7 days of daily weather without blowing up', () => {
+    const model = modelOf('normal-concrete', 0.2, 'two-face');
+    const initialHeld = waterHeldM(model, { state: model.initialState() });
+    const result = run(model, dailyWeather(7), 7 * 24);
+    finiteRun(result);
+    expect(result.maxSurfaceStressPa).toBeLessThan(50e6);
+    const inflow = result.state.transport.surfaceInflowM;
+    expect(
+      Math.abs(waterHeldM(model, result) - initialHeld - inflow) / Math.abs(inflow),
+    ).toBeLessThan(1e-8);
+  });
+});
