@@ -28,6 +28,7 @@ export interface RunningServer {
   mqttPort: number | null;
   archive: Archive;
   ingestor: Ingestor;
+  broker: BrokerConnection;
   logger: Logger;
   /** Stops taking messages and requests, flushes the forwarder, closes the archive. */
   close(): Promise<void>;
@@ -111,6 +112,7 @@ export async function startServer(config: ServerConfig, logger?: Logger): Promis
     mqttPort,
     archive,
     ingestor,
+    broker,
     logger: log,
     async close() {
       await new Promise<void>((resolve) => {
