@@ -27,8 +27,8 @@ import {
 import type { ParameterSpec } from './parameterPrior.ts';
 import { serialEnsrfAnalysis } from './serialEnsrfAnalysis.ts';
 import {
-  fromAnalysisVariable,
-  toAnalysisVariable,
+  analysisVariableFunction,
+  physicalValueFunction,
   type VariableTransform,
 } from './variableTransform.ts';
 
@@ -90,7 +90,8 @@ export interface AssimilationDiagnostics {
 
 /**
  * Assimilates `observations` into the ensemble and returns the analysis ensemble (members are
- * new objects; `carried` is passed through; `random` and `timeS` are unchanged, `analysisCount`
+ * new objects whose `state` and `parameters` are views into one new buffer, never shared with
+ * another member or with the forecast; `carried` is passed through; `random` and `timeS` are unchanged, `analysisCount`
  * counts up). Steps:
  * 1. drop missing or invalid observations and those any member cannot predict; none left ->
  *    the ensemble is returned unchanged (no inflation either);
@@ -219,20 +220,20 @@ function toAnalysisMatrix<C>(
   const memberCount = members.length;
   const stateCount = members[0]?.state.length ?? 0;
   const matrix = createEnsembleMatrix(stateCount + specs.length, memberCount);
-  members.forEach((member, k) => {
-    for (let i = 0; i < stateCount; i++) {
-      matrix.values[i * memberCount + k] = toAnalysisVariable(
-        stateTransform,
-        member.state[i] ?? Number.NaN,
-      );
+  const values = matrix.values;
+  const forward = analysisVariableFunction(stateTransform);
+  const parameterForward = specs.map((spec) => analysisVariableFunction(spec.transform));
+  for (let k = 0; k < memberCount; k++) {
+    const member = members[k];
+    if (member === undefined) continue;
+    const state = member.state;
+    for (let i = 0; i < stateCount; i++)
+      values[i * memberCount + k] = forward(state[i] ?? Number.NaN);
+    for (let j = 0; j < specs.length; j++) {
+      const toZ = parameterForward[j] ?? forward;
+      values[(stateCount + j) * memberCount + k] = toZ(member.parameters[j] ?? Number.NaN);
     }
-    specs.forEach((spec, j) => {
-      matrix.values[(stateCount + j) * memberCount + k] = toAnalysisVariable(
-        spec.transform,
-        member.parameters[j] ?? Number.NaN,
-      );
-    });
-  });
+  }
   return matrix;
 }
 
@@ -244,20 +245,22 @@ function fromAnalysisMatrix<C>(
 ): EnsembleMember<C>[] {
   const memberCount = members.length;
   const stateCount = matrix.rowCount - specs.length;
+  const values = matrix.values;
+  const inverse = physicalValueFunction(stateTransform);
+  const parameterInverse = specs.map((spec) => physicalValueFunction(spec.transform));
+  // One buffer for all members, each member's state and parameters a view into it: a single
+  // allocation instead of two per member (typed array allocation dominates at this size).
+  const width = stateCount + specs.length;
+  const storage = new Float64Array(memberCount * width);
   return members.map((member, k) => {
-    const state = new Float64Array(stateCount);
-    for (let i = 0; i < stateCount; i++) {
-      state[i] = fromAnalysisVariable(
-        stateTransform,
-        matrix.values[i * memberCount + k] ?? Number.NaN,
-      );
+    const state = storage.subarray(k * width, k * width + stateCount);
+    for (let i = 0; i < stateCount; i++)
+      state[i] = inverse(values[i * memberCount + k] ?? Number.NaN);
+    const parameters = storage.subarray(k * width + stateCount, (k + 1) * width);
+    for (let j = 0; j < specs.length; j++) {
+      const toX = parameterInverse[j] ?? inverse;
+      parameters[j] = toX(values[(stateCount + j) * memberCount + k] ?? Number.NaN);
     }
-    const parameters = Float64Array.from(specs, (spec, j) =>
-      fromAnalysisVariable(
-        spec.transform,
-        matrix.values[(stateCount + j) * memberCount + k] ?? Number.NaN,
-      ),
-    );
     return { state, parameters, carried: member.carried };
   });
 }

@@ -19,12 +19,13 @@ import type { EnsembleMatrix } from './_ensembleMatrix.ts';
  *   (= ((N-1) I + Yt^T Yt)^-1 Yt^T dt by the push-through identity),
  * - transform      `T = (I + S^T S)^(-1/2) = I + S^T V diag(g(lambda)) V^T S`,
  *   `g(l) = ((1 + l)^(-1/2) - 1) / l`, g(0) = -1/2 (continuous),
- * - analysis       `x_mean += X w`, `X <- X T`.
+ * - analysis       `x_mean += X w`, `X <- X T`, evaluated as `X + (X Q) diag(g) Q^T` with
+ *   `Q = S^T V`, never forming the N x N matrix.
  * For a linear observation operator the analysis mean and sample covariance equal the Kalman
  * filter update of the forecast sample mean and covariance exactly; T keeps the perturbations'
  * zero mean because T 1 = 1.
  *
- * Cost: O(m^3 + m^2 N + m N^2 + n N^2); only an m x m eigenproblem, so a handful of probes is
+ * Cost: O(m^3 + m^2 N + n N m); only an m x m eigenproblem, so a handful of probes is
  * cheap at any ensemble size.
  *
  * @param statePerturbations - X, overwritten with the analysis perturbations.
@@ -72,13 +73,16 @@ export function etkfAnalysis(
   const eigenvalues = decomposition.realEigenvalues.map((value) => Math.max(0, value));
   const vectors = decomposition.eigenvectorMatrix;
 
-  // Q = S^T V (N x m): column c is S^T v_c.
-  const q = new Float64Array(memberCount * m);
+  // Q = S^T V (N x m), stored transposed (row c = (S^T v_c)^T) so the loops below run over
+  // members on contiguous memory.
+  const qT = new Float64Array(m * memberCount);
   for (let c = 0; c < m; c++) {
-    for (let k = 0; k < memberCount; k++) {
-      let sum = 0;
-      for (let j = 0; j < m; j++) sum += (s[j * memberCount + k] ?? 0) * vectors.get(j, c);
-      q[k * m + c] = sum;
+    for (let j = 0; j < m; j++) {
+      const v = vectors.get(j, c);
+      for (let k = 0; k < memberCount; k++) {
+        qT[c * memberCount + k] =
+          (qT[c * memberCount + k] ?? 0) + (s[j * memberCount + k] ?? 0) * v;
+      }
     }
   }
 
@@ -91,54 +95,33 @@ export function etkfAnalysis(
   }
   const shrink = eigenvalues.map(squareRootShrink);
 
-  // W = w 1^T + T, T = I + Q diag(g) Q^T (N x N).
-  const weights = new Float64Array(memberCount * memberCount);
-  const meanWeights = new Float64Array(memberCount);
-  for (let l = 0; l < memberCount; l++) {
-    let meanWeight = 0;
-    for (let c = 0; c < m; c++) meanWeight += (q[l * m + c] ?? 0) * (projected[c] ?? 0);
-    for (let k = l; k < memberCount; k++) {
-      let sum = 0;
-      for (let c = 0; c < m; c++)
-        sum += (q[l * m + c] ?? 0) * (shrink[c] ?? 0) * (q[k * m + c] ?? 0);
-      const t = (l === k ? 1 : 0) + sum;
-      weights[l * memberCount + k] = t;
-      weights[k * memberCount + l] = t;
+  // Row by row: with xq = X_i Q (1 x m), x_mean += xq . projected (= X_i w) and
+  // X_i <- X_i T = X_i + (xq diag(g)) Q^T: O(n N m) instead of forming the N x N transform.
+  const { rowCount, values } = statePerturbations;
+  const coefficients = new Float64Array(m);
+  for (let i = 0; i < rowCount; i++) {
+    const offset = i * memberCount;
+    let shift = 0;
+    for (let c = 0; c < m; c++) {
+      let xq = 0;
+      for (let k = 0; k < memberCount; k++)
+        xq += (values[offset + k] ?? 0) * (qT[c * memberCount + k] ?? 0);
+      shift += xq * (projected[c] ?? 0);
+      coefficients[c] = xq * (shrink[c] ?? 0);
     }
-    meanWeights[l] = meanWeight;
+    stateMeans[i] = (stateMeans[i] ?? 0) + shift;
+    for (let c = 0; c < m; c++) {
+      const coefficient = coefficients[c] ?? 0;
+      for (let k = 0; k < memberCount; k++) {
+        values[offset + k] =
+          (values[offset + k] ?? 0) + coefficient * (qT[c * memberCount + k] ?? 0);
+      }
+    }
   }
-  applyWeights(statePerturbations, stateMeans, weights, meanWeights);
 }
 
 /** g(l) = ((1 + l)^(-1/2) - 1) / l, by a series below 1e-8 where the quotient loses digits. */
 function squareRootShrink(lambda: number): number {
   if (lambda < 1e-8) return -0.5 + 0.375 * lambda;
   return (1 / Math.sqrt(1 + lambda) - 1) / lambda;
-}
-
-/** x_mean += X w; X <- X T (row by row, through one scratch row). */
-function applyWeights(
-  perturbations: EnsembleMatrix,
-  means: Float64Array,
-  transform: Float64Array,
-  meanWeights: Float64Array,
-): void {
-  const { rowCount, memberCount, values } = perturbations;
-  const row = new Float64Array(memberCount);
-  for (let i = 0; i < rowCount; i++) {
-    const offset = i * memberCount;
-    let shift = 0;
-    for (let l = 0; l < memberCount; l++) {
-      const x = values[offset + l] ?? 0;
-      row[l] = x;
-      shift += x * (meanWeights[l] ?? 0);
-    }
-    means[i] = (means[i] ?? 0) + shift;
-    for (let k = 0; k < memberCount; k++) {
-      let sum = 0;
-      for (let l = 0; l < memberCount; l++)
-        sum += (row[l] ?? 0) * (transform[l * memberCount + k] ?? 0);
-      values[offset + k] = sum;
-    }
-  }
 }

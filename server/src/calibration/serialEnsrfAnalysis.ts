@@ -64,62 +64,34 @@ export function serialEnsrfAnalysis(
     const innovation = innovations[j] ?? 0;
     const alpha = 1 / (1 + Math.sqrt(r / denominator));
     const observationDepth = localisation?.observationDepthM[j] ?? Number.NaN;
+    const scale = 1 / ((memberCount - 1) * denominator);
 
-    const weightOf = (depthM: number): number =>
-      localisation === null ? 1 : gaspariCohn(depthM - observationDepth, localisation.halfWidthM);
-
-    for (let i = 0; i < statePerturbations.rowCount; i++) {
-      const gainFactor = weightOf(localisation?.stateDepthM[i] ?? Number.NaN) / denominator;
-      updateRow(
-        statePerturbations.values,
-        i * memberCount,
-        memberCount,
-        y,
-        gainFactor,
-        innovation,
-        alpha,
-        (shift) => {
-          stateMeans[i] = (stateMeans[i] ?? 0) + shift;
-        },
-      );
-    }
-    for (let l = j + 1; l < m; l++) {
-      const gainFactor = weightOf(localisation?.observationDepthM[l] ?? Number.NaN) / denominator;
-      updateRow(
-        observed,
-        l * memberCount,
-        memberCount,
-        y,
-        gainFactor,
-        innovation,
-        alpha,
-        (shift) => {
-          // The predicted mean of observation l moves by the shift: its innovation moves the other way.
-          innovations[l] = (innovations[l] ?? 0) - shift;
-        },
-      );
+    // State rows, then the predicted observations still to be assimilated (rows l > j).
+    const stateRows = statePerturbations.rowCount;
+    for (let row = 0; row < stateRows + m; row++) {
+      if (row >= stateRows && row - stateRows <= j) continue;
+      const isState = row < stateRows;
+      const index = isState ? row : row - stateRows;
+      const target = isState ? statePerturbations.values : observed;
+      let weight = 1;
+      if (localisation !== null) {
+        const depth = isState
+          ? localisation.stateDepthM[index]
+          : localisation.observationDepthM[index];
+        weight = gaspariCohn((depth ?? Number.NaN) - observationDepth, localisation.halfWidthM);
+        if (weight === 0) continue;
+      }
+      const offset = index * memberCount;
+      let covariance = 0;
+      for (let k = 0; k < memberCount; k++) covariance += (target[offset + k] ?? 0) * (y[k] ?? 0);
+      const gain = weight * covariance * scale;
+      if (gain === 0) continue;
+      if (isState) stateMeans[index] = (stateMeans[index] ?? 0) + gain * innovation;
+      // The predicted mean of a later observation moves by the shift: its innovation the other way.
+      else innovations[index] = (innovations[index] ?? 0) - gain * innovation;
+      const step = alpha * gain;
+      for (let k = 0; k < memberCount; k++)
+        target[offset + k] = (target[offset + k] ?? 0) - step * (y[k] ?? 0);
     }
   }
-}
-
-/** One row's scalar update: K = gainFactor cov(x, y); mean += K d; x -= alpha K y. */
-function updateRow(
-  values: Float64Array,
-  offset: number,
-  memberCount: number,
-  y: Float64Array,
-  gainFactor: number,
-  innovation: number,
-  alpha: number,
-  shiftMean: (shift: number) => void,
-): void {
-  if (gainFactor === 0) return;
-  let covariance = 0;
-  for (let k = 0; k < memberCount; k++) covariance += (values[offset + k] ?? 0) * (y[k] ?? 0);
-  const gain = (gainFactor * covariance) / (memberCount - 1);
-  if (gain === 0) return;
-  shiftMean(gain * innovation);
-  const step = alpha * gain;
-  for (let k = 0; k < memberCount; k++)
-    values[offset + k] = (values[offset + k] ?? 0) - step * (y[k] ?? 0);
 }

@@ -93,6 +93,33 @@ export function analysisVariableSlope(transform: VariableTransform, value: numbe
   }
 }
 
+/**
+ * {@link toAnalysisVariable} bound to one transform, for loops over many values (one switch,
+ * then a plain function call per value).
+ */
+export function analysisVariableFunction(transform: VariableTransform): (value: number) => number {
+  switch (transform.kind) {
+    case 'identity':
+      return (value) => value;
+    case 'log':
+      return Math.log;
+    case 'logit':
+      return (value) => toAnalysisVariable(transform, value);
+  }
+}
+
+/** {@link fromAnalysisVariable} bound to one transform (see {@link analysisVariableFunction}). */
+export function physicalValueFunction(transform: VariableTransform): (z: number) => number {
+  switch (transform.kind) {
+    case 'identity':
+      return (z) => z;
+    case 'log':
+      return (z) => Math.exp(Math.min(LOG_LIMIT, Math.max(-LOG_LIMIT, z)));
+    case 'logit':
+      return (z) => fromAnalysisVariable(transform, z);
+  }
+}
+
 /** The double next to `from` in the direction of `towards`. */
 function nextTowards(from: number, towards: number): number {
   if (from === towards) return from;
