@@ -6,6 +6,7 @@ import type { CommandDefinition } from './commandDefinition.ts';
 import { dryingStressCommand } from './dryingStressCommand.ts';
 import { evaporationCommand } from './evaporationCommand.ts';
 import { maturityCommand } from './maturityCommand.ts';
+import { simulateCommand } from './simulateCommand.ts';
 import { strengthCommand } from './strengthCommand.ts';
 
 export const COMMANDS: readonly CommandDefinition[] = [
@@ -13,4 +14,5 @@ export const COMMANDS: readonly CommandDefinition[] = [
   maturityCommand,
   strengthCommand,
   dryingStressCommand,
+  simulateCommand,
 ];

@@ -62,8 +62,11 @@ export interface ElementModelOptions {
 
 /** Configuration of one element. */
 export interface ElementModelConfig {
-  /** A validated preset (see materialPreset.ts). */
-  material: MaterialPreset;
+  /**
+   * A validated preset (see materialPreset.ts), or a material already derived from one (e.g. with
+   * a pore-size distribution of the user's own in place of the preset's).
+   */
+  material: MaterialPreset | ElementMaterial;
   /** Element thickness, m. */
   thicknessM: number;
   dryingCase: DryingCase;
@@ -97,7 +100,8 @@ export interface ElementModel {
 /** Builds the model of one element. */
 export function createElementModel(config: ElementModelConfig): ElementModel {
   const options = config.options ?? {};
-  const material = elementMaterialFromPreset(config.material);
+  const material =
+    'preset' in config.material ? config.material : elementMaterialFromPreset(config.material);
   const grid = buildDepthGrid(domainDepthM(config.thicknessM, config.dryingCase), {
     cellCount: options.cellCount ?? 60,
     firstCellM: options.firstCellM ?? 1e-4,

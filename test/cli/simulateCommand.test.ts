@@ -1,0 +1,124 @@
+import { readFileSync } from 'node:fs';
+import { join } from 'node:path';
+import { afterAll, describe, expect, it } from 'vitest';
+import { callCli, fixtureFolder, runCliJson } from './_runCli.ts';
+
+const folder = fixtureFolder();
+afterAll(() => folder.remove());
+
+const BASE = [
+  'simulate',
+  '--material',
+  'cement-mortar-fine',
+  '--thickness-mm',
+  '40',
+  '--cells',
+  '30',
+];
+const STEADY = ['--air-temp', '30', '--rh', '40', '--wind', '15'];
+
+describe('meniscus simulate', () => {
+  it('--json prints the summary keys, a series and the requested profiles', async () => {
+    const { json } = await runCliJson(
+      [...BASE, ...STEADY, '--hours', '3', '--profiles-at', '1,3'],
+      undefined,
+      callCli,
+    );
+    for (const key of ['maxSurfaceStressMPa', 'minMarginMPa', 'maxUtilization', 'waterLossKgM2']) {
+      expect(typeof json[key], key).toBe('number');
+    }
+    const series = json.series as Record<string, number>[];
+    expect(series.length).toBe(13); // placement plus every 15 min for 3 h
+    for (const key of [
+      'timeH',
+      'surfaceStressMPa',
+      'fctmMPa',
+      'utilization',
+      'evaporationKgM2h',
+      'surfaceSaturation',
+    ]) {
+      expect(typeof series[1]?.[key], key).toBe('number');
+    }
+    expect(series.at(-1)?.timeH).toBe(3);
+    const profiles = json.profiles as { timeH: number; depthMm: number[]; saturation: number[] }[];
+    expect(profiles.map((profile) => profile.timeH)).toEqual([1, 3]);
+    expect(profiles[0]?.depthMm.length).toBe(30);
+    expect(json.waterLossKgM2).toBeGreaterThan(0);
+  });
+
+  it('reads a weather CSV with ISO times and a measure log, and the measure lowers the water loss', async () => {
+    const weather = folder.write(
+      'weather.csv',
+      'time,airTempC,rhPercent,windKmH,concreteTempC\n' +
+        '2026-07-01T08:00:00+02:00,26,50,10,27\n' +
+        '2026-07-01T10:00:00+02:00,31,35,20,33\n' +
+        '2026-07-01T12:00:00+02:00,33,30,25,35\n',
+    );
+    const measures = folder.write(
+      'measures.json',
+      JSON.stringify([{ kind: 'curing-compound', startH: 0, efficiency: 0.8 }]),
+    );
+    const args = [...BASE, '--weather', join(folder.path, weather), '--hours', '4'];
+    const open = await runCliJson(args, undefined, callCli);
+    const cured = await runCliJson(
+      [...args, '--measures', join(folder.path, measures)],
+      undefined,
+      callCli,
+    );
+    expect(cured.json.waterLossKgM2).toBeLessThan(0.5 * (open.json.waterLossKgM2 as number));
+  });
+
+  it('writes an SVG figure with --plot', async () => {
+    const run = await callCli([
+      ...BASE,
+      ...STEADY,
+      '--hours',
+      '2',
+      '--profiles-at',
+      '2',
+      '--plot',
+      join(folder.path, 'run.svg'),
+    ]);
+    expect(run.code).toBe(0);
+    expect(readFileSync(join(folder.path, 'run.svg'), 'utf8')).toMatch(/^<svg/);
+  });
+
+  it.each([
+    [
+      'no material',
+      ['simulate', '--thickness-mm', '40', ...STEADY],
+      /--material or --psd is required/,
+    ],
+    [
+      'freezing concrete',
+      [...BASE, ...STEADY, '--concrete-temp', '-3'],
+      /--concrete-temp must be between 0 and 60 \(degC\): got -3/,
+    ],
+    [
+      'an unknown preset',
+      ['simulate', '--material', 'granite', '--thickness-mm', '40', ...STEADY],
+      /--material must be one of .*: got "granite"/,
+    ],
+    [
+      '--psd without --porosity',
+      ['simulate', '--psd', 'x.json', '--thickness-mm', '40', ...STEADY],
+      /--porosity/,
+    ],
+    [
+      'a plot that is neither png nor svg',
+      [...BASE, ...STEADY, '--plot', 'run.gif'],
+      /--plot must name a .png or .svg file: got "run.gif"/,
+    ],
+    [
+      'profiles past the run',
+      [...BASE, ...STEADY, '--hours', '2', '--profiles-at', '5'],
+      /--profiles-at must be hours between 0 and --hours \(2\)/,
+    ],
+  ])('exits 2 with one line for %s', async (_label, args, message) => {
+    const run = await callCli(args);
+    expect(run.code).toBe(2);
+    expect(run.stdout).toBe('');
+    expect(run.stderr.trim().split('\n')).toHaveLength(1);
+    expect(run.stderr).toMatch(message);
+  });
+});
