@@ -57,6 +57,19 @@ describe('fromAnalysisVariable() keeps values physical for any analysis variable
     );
   });
 
+  it('shifted-log: finite and not below -offset', () => {
+    fc.assert(
+      fc.property(
+        fc.double({ noNaN: true }),
+        fc.double({ min: 1e-3, max: 1e6, noNaN: true }),
+        (z, offset) => {
+          const x = fromAnalysisVariable({ kind: 'shifted-log', offset }, z);
+          return Number.isFinite(x) && x >= -offset;
+        },
+      ),
+    );
+  });
+
   it('logit: strictly inside (lower, upper)', () => {
     fc.assert(
       fc.property(

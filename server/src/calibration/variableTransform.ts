@@ -9,7 +9,11 @@
 
 /** How one variable is represented in the analysis. */
 export type VariableTransform =
-  { kind: 'identity' } | { kind: 'log' } | { kind: 'logit'; lower: number; upper: number };
+  | { kind: 'identity' }
+  | { kind: 'log' }
+  /** ln(x + offset): positive quantities that may reach 0, e.g. suction of a saturated cell. */
+  | { kind: 'shifted-log'; offset: number }
+  | { kind: 'logit'; lower: number; upper: number };
 
 /**
  * Largest |z| a logit variable is allowed to reach before back-transforming: at 30 the
@@ -26,6 +30,7 @@ export const LOG_LIMIT = 700;
  *
  * - identity: `z = x`;
  * - log: `z = ln x`, for x > 0 (x <= 0 gives -Infinity or NaN: a prior must not contain it);
+ * - shifted-log: `z = ln(x + offset)`, for x > -offset (same edge behaviour);
  * - logit on (lower, upper): `z = ln(u / (1 - u))` with `u = (x - lower) / (upper - lower)`;
  *   x at or beyond a bound gives -/+Infinity, NaN stays NaN.
  *
@@ -38,6 +43,8 @@ export function toAnalysisVariable(transform: VariableTransform, value: number):
       return value;
     case 'log':
       return Math.log(value);
+    case 'shifted-log':
+      return Math.log(value + transform.offset);
     case 'logit': {
       const u = (value - transform.lower) / (transform.upper - transform.lower);
       return Math.log(u) - Math.log1p(-u);
@@ -50,6 +57,8 @@ export function toAnalysisVariable(transform: VariableTransform, value: number):
  *
  * - identity: `x = z`;
  * - log: `x = exp(clamp(z, -700, 700))`: always finite and > 0;
+ * - shifted-log: `x = exp(clamp(z, -700, 700)) - offset`: finite and >= -offset (> -offset
+ *   unless the exponential is below the offset's rounding unit);
  * - logit: `x = lower + (upper - lower) / (1 + exp(-clamp(z, -30, 30)))`: strictly inside
  *   (lower, upper) for ordinary bounds (see {@link LOGIT_LIMIT}), and if rounding ever lands on a
  *   bound the neighbouring double inside is returned.
@@ -64,6 +73,8 @@ export function fromAnalysisVariable(transform: VariableTransform, z: number): n
       return z;
     case 'log':
       return Math.exp(Math.min(LOG_LIMIT, Math.max(-LOG_LIMIT, z)));
+    case 'shifted-log':
+      return Math.exp(Math.min(LOG_LIMIT, Math.max(-LOG_LIMIT, z))) - transform.offset;
     case 'logit': {
       const { lower, upper } = transform;
       const clamped = Math.min(LOGIT_LIMIT, Math.max(-LOGIT_LIMIT, z));
@@ -77,7 +88,7 @@ export function fromAnalysisVariable(transform: VariableTransform, z: number): n
 
 /**
  * Derivative dz/dx of the forward transform at x (for the delta method when a spread is
- * converted between spaces): 1, 1/x, or (upper - lower) / ((x - lower)(upper - x)).
+ * converted between spaces): 1, 1/x, 1/(x + offset), or (upper - lower) / ((x - lower)(upper - x)).
  */
 export function analysisVariableSlope(transform: VariableTransform, value: number): number {
   switch (transform.kind) {
@@ -85,6 +96,8 @@ export function analysisVariableSlope(transform: VariableTransform, value: numbe
       return 1;
     case 'log':
       return 1 / value;
+    case 'shifted-log':
+      return 1 / (value + transform.offset);
     case 'logit':
       return (
         (transform.upper - transform.lower) /
@@ -103,6 +116,7 @@ export function analysisVariableFunction(transform: VariableTransform): (value: 
       return (value) => value;
     case 'log':
       return Math.log;
+    case 'shifted-log':
     case 'logit':
       return (value) => toAnalysisVariable(transform, value);
   }
@@ -115,6 +129,7 @@ export function physicalValueFunction(transform: VariableTransform): (z: number)
       return (z) => z;
     case 'log':
       return (z) => Math.exp(Math.min(LOG_LIMIT, Math.max(-LOG_LIMIT, z)));
+    case 'shifted-log':
     case 'logit':
       return (z) => fromAnalysisVariable(transform, z);
   }
