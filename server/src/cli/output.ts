@@ -12,11 +12,8 @@ export const CAUTION =
   'engineer; confirm strength with field-cured specimens or in-place tests as the ' +
   'specifications require.';
 
-/** The closing line of human-readable output: the same cautions, shortened. */
-export const CAUTION_LINE =
-  'Caution: estimates only. Curing, protection, stripping and loading decisions stay with the ' +
-  'specifications, local codes and the responsible engineer; confirm strength by specimens or ' +
-  'in-place tests.';
+/** The closing line of human-readable output: the same cautions. */
+export const CAUTION_LINE = `Caution: ${CAUTION}`;
 
 /** A table of the human-readable output. */
 export interface ReportTable {
