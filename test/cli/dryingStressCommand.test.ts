@@ -273,7 +273,7 @@ describe.concurrent('meniscus drying-stress (human output)', () => {
     expect(run.stdout).toContain('equiv. pore pressure (MPa)');
     expect(run.stdout).toMatch(/│ 50\.00\s*│ 1\.000\s*│/);
     expect(run.stdout).toContain('stress factor C');
-    expect(run.stdout).toContain('Caution: estimates only');
+    expect(run.stdout).toContain('Caution: Estimates only');
   });
 });
 

@@ -116,7 +116,7 @@ describe.concurrent('meniscus evaporation (human output)', () => {
     expect(run.stdout).toMatch(/band \(\+-40 %, Hover 2006\)\s*│\s*0\.90 to 2\.10/);
     expect(run.stdout).toContain('take precautions against plastic shrinkage cracking');
     expect(run.stdout).toContain('taken as measured about 0.5 m above the surface');
-    expect(run.stdout).toContain('Caution: estimates only');
+    expect(run.stdout).toContain('Caution: Estimates only');
   });
 });
 

@@ -136,7 +136,7 @@ describe('main() in-process with stand-in commands', () => {
     );
     expect(text.out.stdout).toContain('Echo');
     expect(text.out.stdout).toMatch(/depth\s*│\s*3\s*│\s*mm/);
-    expect(text.out.stdout).toContain('Caution: estimates only');
+    expect(text.out.stdout).toContain('Caution: Estimates only');
   });
 
   it('a fault of the tool exits 1 with one line on stderr, not a stack', async () => {

@@ -203,7 +203,7 @@ describe.concurrent('meniscus maturity (human output)', () => {
     expect(run.stdout).toContain('Maturity of irregular.csv (ASTM C1074; primary: arrhenius)');
     expect(run.stdout).toMatch(/duration of the record\s*│\s*6\.00\s*│\s*h/);
     expect(run.stdout).toContain('gap of 3.00 h between lines 6 and 7');
-    expect(run.stdout).toContain('Caution: estimates only');
+    expect(run.stdout).toContain('Caution: Estimates only');
   });
 });
 

@@ -120,7 +120,7 @@ describe.concurrent('meniscus strength (human output)', () => {
     expect(run.stdout).toContain('C30/37, cement class N (s = 0.25) at 7 days equivalent age');
     expect(run.stdout).toMatch(/mean compressive strength fcm\s*│\s*29\.6\s*│\s*38\.0/);
     expect(run.stdout).toMatch(/mean tensile strength fctm\s*│\s*2\.26\s*│\s*2\.90/);
-    expect(run.stdout).toContain('Caution: estimates only');
+    expect(run.stdout).toContain('Caution: Estimates only');
   });
 });
 
