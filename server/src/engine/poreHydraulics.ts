@@ -15,6 +15,7 @@ import { equivalentPorePressureCurve } from '../physics/equivalentPorePressure.t
 import type { PoreSizeDistribution } from '../physics/retentionCurve.ts';
 import { waterSurfaceTensionNPerM } from '../physics/waterSurfaceTension.ts';
 import { waterViscosityPaS } from '../physics/waterViscosity.ts';
+import { waterDensityKgPerM3 } from '../physics/waterDensity.ts';
 import { kelvinCoefficientPa } from '../physics/kelvin.ts';
 import { saturationVapourPressurePa } from '../physics/saturationVapourPressure.ts';
 import {
@@ -23,6 +24,7 @@ import {
 } from '../physics/capillaryBundlePermeability.ts';
 import { GAS_CONSTANT_J_PER_MOL_K, WATER_MOLAR_MASS_KG_PER_MOL } from '../physics/units.ts';
 import type { CellHydraulics } from './hydraulics.ts';
+import { buildHydraulicTable } from './_hydraulicTable.ts';
 
 /** Options of {@link createPoreHydraulics}. */
 export interface PoreHydraulicsOptions {
@@ -110,6 +112,34 @@ export function createPoreHydraulics(options: PoreHydraulicsOptions): PoreHydrau
     tortuosity: options.tortuosity,
   });
   const equivalentPressure = equivalentPorePressureCurve(retention);
+  const table = buildHydraulicTable(retention, permeability);
+  const tableSaturation = table.saturation;
+  const tablePermeability = table.permeabilityM2;
+  const lastNode = table.nodeCount - 1;
+  const logStart = table.logSuctionStart;
+  const inverseStep = table.inverseStep;
+  // Scratch of the interpolation (module-free, no allocation per call).
+  let lookupSaturation = 1;
+  let lookupSlope = 0; // dS/du
+  let lookupPermeability = table.saturatedPermeabilityM2;
+  /** Interpolates the table at a reference pressure below the air entry. */
+  const lookup = (referencePa: number): void => {
+    const position = (Math.log(-referencePa) - logStart) * inverseStep;
+    if (position >= lastNode) {
+      lookupSaturation = tableSaturation[lastNode] as number;
+      lookupSlope = 0;
+      lookupPermeability = tablePermeability[lastNode] as number;
+      return;
+    }
+    const node = position > 0 ? Math.floor(position) : 0;
+    const weight = position - node;
+    const s0 = tableSaturation[node] as number;
+    const s1 = tableSaturation[node + 1] as number;
+    const k0 = tablePermeability[node] as number;
+    lookupSaturation = s0 + weight * (s1 - s0);
+    lookupSlope = (s1 - s0) * inverseStep;
+    lookupPermeability = k0 + weight * ((tablePermeability[node + 1] as number) - k0);
+  };
   const multiplier = options.permeabilityMultiplier ?? 1;
   const vapourOn = options.vapourDiffusion ?? true;
   const airDiffusivity = options.vapourDiffusivityM2s ?? 2.5e-5;
@@ -133,23 +163,48 @@ export function createPoreHydraulics(options: PoreHydraulicsOptions): PoreHydrau
     }
   };
   const computedForK = new Float64Array(n).fill(Number.NaN);
-  const refreshTemperature = (): void => {
-    for (let i = 0; i < n; i += 1) {
-      const temperature = temperatureK[i] as number;
-      // The water properties are costly (IAPWS): recompute only cells whose temperature moved.
-      if (temperature === computedForK[i]) continue;
-      computedForK[i] = temperature;
-      tensionRatio[i] = referenceTension / waterSurfaceTensionNPerM(temperature);
-      inverseViscosity[i] = 1 / waterViscosityPaS(temperature);
-      const kelvinPa = kelvinCoefficientPa(temperature);
-      inverseKelvin[i] = 1 / kelvinPa;
-      vapourFactor[i] = vapourOn
+  /** Water properties at one temperature (IAPWS releases through the physics library). */
+  interface WaterProperties {
+    tensionRatio: number;
+    inverseViscosity: number;
+    inverseKelvin: number;
+    vapourFactor: number;
+  }
+  // The IAPWS formulations cost microseconds per call and cells share temperatures (one surface
+  // temperature, or a handful of probe temperatures per interval), so results are memoised by
+  // exact temperature; the memo is cleared when it grows past 4096 entries.
+  const memo = new Map<number, WaterProperties>();
+  const propertiesAt = (temperature: number): WaterProperties => {
+    const known = memo.get(temperature);
+    if (known !== undefined) return known;
+    const densityKgPerM3 = waterDensityKgPerM3(temperature);
+    const kelvinPa = kelvinCoefficientPa(temperature, densityKgPerM3);
+    const properties: WaterProperties = {
+      tensionRatio: referenceTension / waterSurfaceTensionNPerM(temperature),
+      inverseViscosity: 1 / waterViscosityPaS(temperature, densityKgPerM3),
+      inverseKelvin: 1 / kelvinPa,
+      vapourFactor: vapourOn
         ? ((airDiffusivity / options.tortuosity) *
             options.porosity *
             saturationVapourPressurePa(temperature) *
             WATER_MOLAR_MASS_KG_PER_MOL) /
           (GAS_CONSTANT_J_PER_MOL_K * temperature * liquidDensity * kelvinPa)
-        : 0;
+        : 0,
+    };
+    if (memo.size > 4096) memo.clear();
+    memo.set(temperature, properties);
+    return properties;
+  };
+  const refreshTemperature = (): void => {
+    for (let i = 0; i < n; i += 1) {
+      const temperature = temperatureK[i] as number;
+      if (temperature === computedForK[i]) continue;
+      computedForK[i] = temperature;
+      const properties = propertiesAt(temperature);
+      tensionRatio[i] = properties.tensionRatio;
+      inverseViscosity[i] = properties.inverseViscosity;
+      inverseKelvin[i] = properties.inverseKelvin;
+      vapourFactor[i] = properties.vapourFactor;
     }
     refreshScale();
   };
@@ -159,10 +214,9 @@ export function createPoreHydraulics(options: PoreHydraulicsOptions): PoreHydrau
     const scale = pressureScale[cell] as number;
     const reference = pressurePa * scale;
     const storageCoefficient = specificStoragePerPa[cell] as number;
-    return reference < airEntryRef
-      ? options.porosity * retention.saturation(reference) +
-          (storageCoefficient * airEntryRef) / scale
-      : options.porosity + storageCoefficient * pressurePa;
+    if (reference >= airEntryRef) return options.porosity + storageCoefficient * pressurePa;
+    lookup(reference);
+    return options.porosity * lookupSaturation + (storageCoefficient * airEntryRef) / scale;
   };
 
   return {
@@ -175,7 +229,10 @@ export function createPoreHydraulics(options: PoreHydraulicsOptions): PoreHydrau
     refreshTemperature,
     refreshScale,
     saturationAt(cell, pressurePa) {
-      return retention.saturation(pressurePa * (pressureScale[cell] as number));
+      const reference = pressurePa * (pressureScale[cell] as number);
+      if (reference >= airEntryRef) return 1;
+      lookup(reference);
+      return lookupSaturation;
     },
     waterContentAt(cell, pressurePa) {
       return waterContent(cell, pressurePa);
@@ -185,17 +242,20 @@ export function createPoreHydraulics(options: PoreHydraulicsOptions): PoreHydrau
       for (let iteration = 0; iteration < 50; iteration += 1) {
         const scale = pressureScale[cell] as number;
         const reference = pressure * scale;
-        const capacity =
-          reference < airEntryRef
-            ? options.porosity * retention.capacityPerPa(reference) * scale
-            : (specificStoragePerPa[cell] as number);
+        let capacity = specificStoragePerPa[cell] as number;
+        if (reference < airEntryRef) {
+          lookup(reference);
+          capacity = (options.porosity * lookupSlope) / pressure;
+        }
         const residual = target - waterContent(cell, pressure);
         if (!(capacity > 0) || Math.abs(residual) <= 1e-15 * Math.abs(target)) break;
         let next = pressure + residual / capacity;
         // Keep suction growth bounded per iteration (the curve is steep in ln p).
         if (next < 10 * Math.min(pressure, -1000)) next = 10 * Math.min(pressure, -1000);
         if (next > 0 && pressure < 0 && reference < airEntryRef) next = 0.5 * pressure;
+        const settled = Math.abs(next - pressure) <= 1e-13 * Math.abs(pressure);
         pressure = next;
+        if (settled) break;
       }
       return pressure;
     },
@@ -211,9 +271,13 @@ export function createPoreHydraulics(options: PoreHydraulicsOptions): PoreHydrau
         const reference = pressure * scale;
         let s = 1;
         let stored: number;
+        let permeabilityM2 = table.saturatedPermeabilityM2;
         if (reference < airEntryRef) {
-          s = retention.saturation(reference);
-          capacityPerPa[i] = options.porosity * retention.capacityPerPa(reference) * scale;
+          lookup(reference);
+          s = lookupSaturation;
+          permeabilityM2 = lookupPermeability;
+          // dS/dp = (dS/du) / p with u = ln(-p c): positive, as dS/du < 0 and p < 0.
+          capacityPerPa[i] = (options.porosity * lookupSlope) / pressure;
           stored = (storageCoefficient * airEntryRef) / scale;
         } else {
           capacityPerPa[i] = storageCoefficient;
@@ -221,7 +285,7 @@ export function createPoreHydraulics(options: PoreHydraulicsOptions): PoreHydrau
         }
         water[i] = options.porosity * s + stored;
         if (storageContent !== undefined) storageContent[i] = stored;
-        let value = permeability.permeabilityAtPressureM2(reference) * (liquidFactor[i] as number);
+        let value = permeabilityM2 * (liquidFactor[i] as number);
         if (s < 1) {
           // Kelvin h = exp(p / A) inline: this loop runs for every cell in every iteration.
           value +=

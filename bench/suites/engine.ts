@@ -1,0 +1,129 @@
+/**
+ * Cost of the element model (issue 3). The baseline of the first figure is a bare tridiagonal
+ * (Thomas) solve of the same size in the same process: the irreducible work of one implicit
+ * step of any 1-D finite-volume scheme. The growth figures fit the exponent of run time against
+ * cell count (30 to 480) and against simulated hours; near-linear growth means the step count
+ * does not blow up with resolution or with the length of the run.
+ */
+import { createElementModel } from '../../server/src/engine/elementModel.ts';
+import { loadMaterialPreset } from '../../server/src/engine/materialPreset.ts';
+import { simulateElement, type WeatherSample } from '../../server/src/engine/simulateElement.ts';
+import { solveTridiagonal } from '../../server/src/engine/tridiagonal.ts';
+import { availableParallelism, loadavg } from 'node:os';
+import { type BenchFigure, type BenchSuite, ratioFigure } from '../figure.ts';
+
+const HOUR_S = 3600;
+
+/** An invented summer day from placement at 08:00: 14 to 30 degC, 35 to 75 % RH, 1 to 6 m/s. */
+function dailyWeather(days: number): WeatherSample[] {
+  const samples: WeatherSample[] = [];
+  for (let hour = 0; hour <= days * 24; hour += 1) {
+    const swing = Math.cos((2 * Math.PI * (hour - 6)) / 24);
+    samples.push({
+      timeS: hour * HOUR_S,
+      airTemperatureK: 295.15 + 8 * swing,
+      relativeHumidity: 0.55 - 0.2 * swing,
+      windMS: 1 + 5 * Math.max(0, swing),
+      surfaceTemperatureK: 297.15 + 8 * swing,
+    });
+  }
+  return samples;
+}
+
+function timedRun(cellCount: number, hours: number): { ms: number; steps: number } {
+  const model = createElementModel({
+    material: loadMaterialPreset('normal-concrete'),
+    thicknessM: 0.15,
+    dryingCase: 'one-face',
+    options: { cellCount },
+  });
+  const start = performance.now();
+  const result = simulateElement({
+    model,
+    weather: dailyWeather(Math.ceil(hours / 24)),
+    durationS: hours * HOUR_S,
+    outputIntervalS: HOUR_S,
+  });
+  return { ms: performance.now() - start, steps: result.state.transport.acceptedSteps };
+}
+
+function thomasNsPerCell(cellCount: number): number {
+  const make = (value: number): Float64Array => new Float64Array(cellCount).fill(value);
+  const lower = make(-1);
+  const diagonal = make(2.5);
+  const upper = make(-1);
+  const rightHandSide = make(1);
+  const solution = make(0);
+  const scratch = make(0);
+  const repetitions = Math.ceil(4e6 / cellCount);
+  for (let i = 0; i < repetitions / 4; i += 1)
+    solveTridiagonal(lower, diagonal, upper, rightHandSide, solution, scratch);
+  const start = performance.now();
+  for (let i = 0; i < repetitions; i += 1) {
+    rightHandSide[0] = 1 + (solution[cellCount - 1] ?? 0) * 1e-9; // keep the work observable
+    solveTridiagonal(lower, diagonal, upper, rightHandSide, solution, scratch);
+  }
+  return ((performance.now() - start) * 1e6) / (repetitions * cellCount);
+}
+
+/** Least-squares slope of ln(y) against ln(x). */
+function fittedExponent(xs: readonly number[], ys: readonly number[]): number {
+  const lx = xs.map(Math.log);
+  const ly = ys.map(Math.log);
+  const mx = lx.reduce((a, b) => a + b, 0) / lx.length;
+  const my = ly.reduce((a, b) => a + b, 0) / ly.length;
+  let covariance = 0;
+  let variance = 0;
+  lx.forEach((x, i) => {
+    covariance += (x - mx) * ((ly[i] ?? 0) - my);
+    variance += (x - mx) ** 2;
+  });
+  return covariance / variance;
+}
+
+const suite: BenchSuite = async () => {
+  timedRun(60, 6); // warm-up (JIT)
+  const reference = timedRun(60, 24);
+  const nsPerCellStep = (reference.ms * 1e6) / (reference.steps * 60);
+  const bareNs = thomasNsPerCell(60);
+  const figures: BenchFigure[] = [
+    ratioFigure({
+      name: 'engine.costPerCellStepVsTridiagonal',
+      value: nsPerCellStep,
+      unit: 'ns per cell-step',
+      baseline: bareNs,
+      target: 'ratio <= 20',
+      met: nsPerCellStep / bareNs <= 20,
+      detail: `24 h of daily weather, normal-concrete, 150 mm, 60 cells: ${reference.steps} steps in ${reference.ms.toFixed(0)} ms (each step: Newton iterations, each with two bulk property evaluations and one Thomas solve, plus maturity, refinement and output); load average ${loadavg()[0]?.toFixed(1)} on ${availableParallelism()} cores`,
+    }),
+  ];
+  const cellCounts = [30, 60, 120, 240, 480];
+  const cellTimes = cellCounts.map((cells) => timedRun(cells, 24).ms);
+  const cellExponent = fittedExponent(cellCounts, cellTimes);
+  figures.push({
+    name: 'engine.runCostGrowthWithCells',
+    value: cellExponent,
+    unit: 'exponent of time against cells',
+    baseline: null,
+    ratio: null,
+    target: 'exponent <= 1.2',
+    met: cellExponent <= 1.2,
+    detail: `24 h runs at ${cellCounts.join(', ')} cells: ${cellTimes.map((ms) => ms.toFixed(0)).join(', ')} ms`,
+  });
+  const hourCounts = [6, 12, 24, 48];
+  const hourTimes = hourCounts.map((hours) => timedRun(60, hours).ms);
+  const hourExponent = fittedExponent(hourCounts, hourTimes);
+  figures.push({
+    name: 'engine.runCostGrowthWithHours',
+    value: hourExponent,
+    unit: 'exponent of time against simulated hours',
+    baseline: null,
+    ratio: null,
+    target: 'exponent <= 1.2',
+    met: hourExponent <= 1.2,
+    detail: `60 cells, ${hourCounts.join(', ')} h: ${hourTimes.map((ms) => ms.toFixed(0)).join(', ')} ms`,
+  });
+  return figures;
+};
+
+export default suite;
