@@ -7,7 +7,6 @@
 import {
   addRowMeans,
   createEnsembleMatrix,
-  type EnsembleMatrix,
   removeRowMeans,
   rowSpreads,
 } from './_ensembleMatrix.ts';
@@ -26,11 +25,8 @@ import {
 } from './observationTransform.ts';
 import type { ParameterSpec } from './parameterPrior.ts';
 import { serialEnsrfAnalysis } from './serialEnsrfAnalysis.ts';
-import {
-  analysisVariableFunction,
-  physicalValueFunction,
-  type VariableTransform,
-} from './variableTransform.ts';
+import type { VariableTransform } from './variableTransform.ts';
+import { fromAnalysisMatrix, toAnalysisMatrix } from './_memberPacking.ts';
 
 /** One reading to assimilate. */
 export interface Observation {
@@ -209,60 +205,6 @@ export function assimilate<C>(
     },
     diagnostics,
   };
-}
-
-/** Rows: state entries then parameters; columns: members. */
-function toAnalysisMatrix<C>(
-  members: readonly EnsembleMember<C>[],
-  specs: readonly ParameterSpec[],
-  stateTransform: VariableTransform,
-): EnsembleMatrix {
-  const memberCount = members.length;
-  const stateCount = members[0]?.state.length ?? 0;
-  const matrix = createEnsembleMatrix(stateCount + specs.length, memberCount);
-  const values = matrix.values;
-  const forward = analysisVariableFunction(stateTransform);
-  const parameterForward = specs.map((spec) => analysisVariableFunction(spec.transform));
-  for (let k = 0; k < memberCount; k++) {
-    const member = members[k];
-    if (member === undefined) continue;
-    const state = member.state;
-    for (let i = 0; i < stateCount; i++)
-      values[i * memberCount + k] = forward(state[i] ?? Number.NaN);
-    for (let j = 0; j < specs.length; j++) {
-      const toZ = parameterForward[j] ?? forward;
-      values[(stateCount + j) * memberCount + k] = toZ(member.parameters[j] ?? Number.NaN);
-    }
-  }
-  return matrix;
-}
-
-function fromAnalysisMatrix<C>(
-  matrix: EnsembleMatrix,
-  members: readonly EnsembleMember<C>[],
-  specs: readonly ParameterSpec[],
-  stateTransform: VariableTransform,
-): EnsembleMember<C>[] {
-  const memberCount = members.length;
-  const stateCount = matrix.rowCount - specs.length;
-  const values = matrix.values;
-  const inverse = physicalValueFunction(stateTransform);
-  const parameterInverse = specs.map((spec) => physicalValueFunction(spec.transform));
-  // One buffer for all members, each member's state and parameters a view into it: a single
-  // allocation instead of two per member (typed array allocation dominates at this size).
-  const width = stateCount + specs.length;
-  const storage = new Float64Array(memberCount * width);
-  return members.map((member, k) => {
-    const state = storage.subarray(k * width, k * width + stateCount);
-    for (let i = 0; i < stateCount; i++)
-      state[i] = inverse(values[i * memberCount + k] ?? Number.NaN);
-    const parameters = storage.subarray(k * width + stateCount, (k + 1) * width);
-    for (let j = 0; j < specs.length; j++) {
-      const toX = parameterInverse[j] ?? inverse;
-      parameters[j] = toX(values[(stateCount + j) * memberCount + k] ?? Number.NaN);
-    }
-    return { state, parameters, carried: member.carried };
-  });
 }
 
 /** Depth of every analysis row: the layout's for state rows, NaN (not localised) for parameters. */

@@ -36,8 +36,10 @@ export interface Ensemble<C = null> {
 /** Supplied by the model: advances one member over [fromS, toS]. */
 export interface ForecastModel<C = null> {
   /**
-   * Returns the member at `toS` (a new object or the same one updated). Any model noise must be
-   * drawn from `random`, which is shared by all members in index order, so runs are repeatable.
+   * Returns the member at `toS` as a new object, leaving the member it was given (and its
+   * arrays) unchanged: the ensemble smoother re-runs a window from the same start, snapshots and
+   * the outlook keep earlier members. Any model noise must be drawn from `random`, which is
+   * shared by all members in index order, so runs are repeatable.
    */
   advance(
     member: EnsembleMember<C>,

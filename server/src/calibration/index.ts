@@ -22,6 +22,8 @@ export type {
 } from './ensemble.ts';
 export { createEnsembleRandom, restoreEnsembleRandom } from './ensembleRandom.ts';
 export type { EnsembleRandom, EnsembleRandomSnapshot } from './ensembleRandom.ts';
+export { esmdaWindow } from './esmdaWindow.ts';
+export type { EsmdaOptions, WindowReadings } from './esmdaWindow.ts';
 export { gaspariCohn } from './gaspariCohn.ts';
 export { DEFAULT_INFLATION } from './inflation.ts';
 export type { InflationOption } from './inflation.ts';
