@@ -12,7 +12,9 @@ export interface CellHydraulics {
    * (m3 of liquid per m3 of bulk: phi S plus the water the specific storage holds), the capacity
    * d theta / dp (1/Pa, >= 0) and the conductivity K = k/eta plus any vapour contribution,
    * m2/(Pa s), so that the volume flux of liquid is q = -K dp/dx (m/s). When `storageContent`
-   * is given, it receives the part of theta held by the specific storage (m3/m3).
+   * is given, it receives the part of theta held by the specific storage (m3/m3). When
+   * `conductivitySlope` is given and the implementation can, it receives dK/dp (m2/(Pa2 s)) and
+   * the call returns true; otherwise the solver differentiates K numerically.
    */
   evaluate(
     pressurePa: Float64Array,
@@ -20,5 +22,6 @@ export interface CellHydraulics {
     capacityPerPa: Float64Array,
     conductivity: Float64Array,
     storageContent?: Float64Array,
-  ): void;
+    conductivitySlope?: Float64Array,
+  ): boolean;
 }

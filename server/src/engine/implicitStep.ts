@@ -148,7 +148,15 @@ export function implicitStep(
   let surfaceInflowM = 0;
   let pendingCheck = false;
   for (let iteration = 1; iteration <= maxIterations + 1; iteration += 1) {
-    hydraulics.evaluate(iterate, water, capacity, conductivity, pendingCheck ? storage : undefined);
+    const analyticSlope =
+      hydraulics.evaluate(
+        iterate,
+        water,
+        capacity,
+        conductivity,
+        pendingCheck ? storage : undefined,
+        newton ? conductivitySlope : undefined,
+      ) === true;
     if (pendingCheck) {
       let waterChangeM = 0;
       let storageWaterM = 0;
@@ -173,7 +181,7 @@ export function implicitStep(
     }
     if (iteration > maxIterations) break;
 
-    if (newton) {
+    if (newton && !analyticSlope) {
       for (let i = 0; i < n; i += 1) {
         const pressure = iterate[i] as number;
         perturbed[i] = pressure - Math.max(1, 1e-6 * Math.abs(pressure));
@@ -184,7 +192,7 @@ export function implicitStep(
           ((conductivity[i] as number) - (conductivityPerturbed[i] as number)) /
           ((iterate[i] as number) - (perturbed[i] as number));
       }
-    } else {
+    } else if (!newton) {
       conductivitySlope.fill(0);
     }
 

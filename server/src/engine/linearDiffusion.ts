@@ -47,6 +47,7 @@ export function linearDiffusionHydraulics(
         conductivity[i] = conductivityValue;
         if (storageContent !== undefined) storageContent[i] = 0;
       }
+      return false;
     },
     pressureFromSaturation(saturationValue) {
       return (saturationValue - 1) * pressureScalePa;

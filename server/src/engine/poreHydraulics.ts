@@ -122,6 +122,7 @@ export function createPoreHydraulics(options: PoreHydraulicsOptions): PoreHydrau
   let lookupSaturation = 1;
   let lookupSlope = 0; // dS/du
   let lookupPermeability = table.saturatedPermeabilityM2;
+  let lookupPermeabilitySlope = 0; // dk/du
   /** Interpolates the table at a reference pressure below the air entry. */
   const lookup = (referencePa: number): void => {
     const position = (Math.log(-referencePa) - logStart) * inverseStep;
@@ -129,6 +130,7 @@ export function createPoreHydraulics(options: PoreHydraulicsOptions): PoreHydrau
       lookupSaturation = tableSaturation[lastNode] as number;
       lookupSlope = 0;
       lookupPermeability = tablePermeability[lastNode] as number;
+      lookupPermeabilitySlope = 0;
       return;
     }
     const node = position > 0 ? Math.floor(position) : 0;
@@ -138,7 +140,9 @@ export function createPoreHydraulics(options: PoreHydraulicsOptions): PoreHydrau
     const k0 = tablePermeability[node] as number;
     lookupSaturation = s0 + weight * (s1 - s0);
     lookupSlope = (s1 - s0) * inverseStep;
-    lookupPermeability = k0 + weight * ((tablePermeability[node + 1] as number) - k0);
+    const k1 = tablePermeability[node + 1] as number;
+    lookupPermeability = k0 + weight * (k1 - k0);
+    lookupPermeabilitySlope = (k1 - k0) * inverseStep;
   };
   const multiplier = options.permeabilityMultiplier ?? 1;
   const vapourOn = options.vapourDiffusion ?? true;
@@ -263,39 +267,44 @@ export function createPoreHydraulics(options: PoreHydraulicsOptions): PoreHydrau
       const scale = pressureScale[cell] as number;
       return equivalentPressure.fromLiquidPressure(pressurePa * scale) / scale;
     },
-    evaluate(pressurePa, water, capacityPerPa, conductivity, storageContent) {
+    evaluate(pressurePa, water, capacityPerPa, conductivity, storageContent, conductivitySlope) {
       for (let i = 0; i < n; i += 1) {
         const pressure = pressurePa[i] as number;
         const scale = pressureScale[i] as number;
         const storageCoefficient = specificStoragePerPa[i] as number;
+        const liquid = liquidFactor[i] as number;
         const reference = pressure * scale;
-        let s = 1;
-        let stored: number;
-        let permeabilityM2 = table.saturatedPermeabilityM2;
-        if (reference < airEntryRef) {
-          lookup(reference);
-          s = lookupSaturation;
-          permeabilityM2 = lookupPermeability;
-          // dS/dp = (dS/du) / p with u = ln(-p c): positive, as dS/du < 0 and p < 0.
-          capacityPerPa[i] = (options.porosity * lookupSlope) / pressure;
-          stored = (storageCoefficient * airEntryRef) / scale;
-        } else {
+        if (reference >= airEntryRef) {
           capacityPerPa[i] = storageCoefficient;
-          stored = storageCoefficient * pressure;
+          const stored = storageCoefficient * pressure;
+          water[i] = options.porosity + stored;
+          if (storageContent !== undefined) storageContent[i] = stored;
+          conductivity[i] = table.saturatedPermeabilityM2 * liquid;
+          if (conductivitySlope !== undefined) conductivitySlope[i] = 0;
+          continue;
         }
+        lookup(reference);
+        const s = lookupSaturation;
+        // d/dp = (d/du) / p with u = ln(-p c); dS/dp > 0 as dS/du < 0 and p < 0.
+        const saturationSlope = lookupSlope / pressure;
+        capacityPerPa[i] = options.porosity * saturationSlope;
+        const stored = (storageCoefficient * airEntryRef) / scale;
         water[i] = options.porosity * s + stored;
         if (storageContent !== undefined) storageContent[i] = stored;
-        let value = permeabilityM2 * (liquidFactor[i] as number);
-        if (s < 1) {
-          // Kelvin h = exp(p / A) inline: this loop runs for every cell in every iteration.
-          value +=
-            (vapourFactor[i] as number) *
-            (1 - s) *
-            Math.exp(Math.min(0, pressure) * (inverseKelvin[i] as number));
+        // Kelvin h = exp(p / A) inline: this loop runs for every cell in every iteration.
+        const inverseA = inverseKelvin[i] as number;
+        const humidity = Math.exp(Math.min(0, pressure) * inverseA);
+        const vapour = vapourFactor[i] as number;
+        conductivity[i] = lookupPermeability * liquid + vapour * (1 - s) * humidity;
+        if (conductivitySlope !== undefined) {
+          conductivitySlope[i] =
+            (lookupPermeabilitySlope * liquid) / pressure +
+            vapour * humidity * ((1 - s) * inverseA - saturationSlope);
         }
-        conductivity[i] = value;
       }
+      return conductivitySlope !== undefined;
     },
+
     airEntryPressurePa(cell) {
       return airEntryRef / (pressureScale[cell] as number);
     },
