@@ -30,6 +30,12 @@ export function parseDeviceTopic(topic: string): DeviceTopic | null {
   return { site, device, channel };
 }
 
+/** True when `topic` matches the subscription filter `meniscus/+/+/data` (levels not checked). */
+export function matchesDataFilter(topic: string): boolean {
+  const levels = topic.split('/');
+  return levels.length === 4 && levels[0] === 'meniscus' && levels[3] === 'data';
+}
+
 /** The data topic of a device. */
 export function dataTopic(site: string, device: string): string {
   return `meniscus/${site}/${device}/data`;

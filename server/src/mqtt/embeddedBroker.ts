@@ -9,13 +9,16 @@
  * before forwarding, so when this process dies, messages the devices saw acknowledged would be
  * lost with the in-memory broker.
  *
+ * Messages on topics outside `meniscus/+/+/data` pass through untouched (the broker also serves
+ * other clients), as an external broker would not deliver them to ingest either.
+ *
  * Status messages (retained status and last wills, which aedes publishes itself) are read
  * through an in-process subscription.
  */
 import { createServer } from 'node:net';
 import type { AddressInfo, Server } from 'node:net';
 import { Aedes } from 'aedes';
-import { DATA_TOPIC_FILTER, STATUS_TOPIC_FILTER, parseDeviceTopic } from '../ingest/topics.ts';
+import { DATA_TOPIC_FILTER, STATUS_TOPIC_FILTER, matchesDataFilter } from '../ingest/topics.ts';
 import type { BrokerConnection, BrokerState, MessageSink } from './brokerConnection.ts';
 
 export interface EmbeddedBrokerOptions {
@@ -45,7 +48,7 @@ export async function startEmbeddedBroker(
   const broker = await Aedes.createBroker({
     authorizePublish(client, packet, callback) {
       const topic = packet.topic;
-      if (client === null || parseDeviceTopic(topic)?.channel !== 'data') {
+      if (client === null || !matchesDataFilter(topic)) {
         callback(null);
         return;
       }
