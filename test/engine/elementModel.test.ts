@@ -187,3 +187,33 @@ describe('element model robustness', () => {
     ).toBeLessThan(1e-8);
   });
 });
+
+describe('element model maturity by depth (physics.md section 6)', () => {
+  it('takes probe temperatures by depth: the warmer core gains equivalent age faster', () => {
+    const model = modelOf('normal-concrete', 0.2, 'one-face', { hydrationHumidityFactor: false });
+    const state = model.initialState();
+    model.advanceTo(state, 6 * HOUR_S, {
+      airTemperatureK: 293.15,
+      relativeHumidity: 0.9,
+      windMS: 0,
+      surfaceTemperatureK: 293.15,
+      probeTemperatures: [
+        { depthM: 0.01, temperatureK: 293.15 },
+        { depthM: 0.15, temperatureK: 313.15 },
+      ],
+    });
+    const surfaceAgeH = (state.equivalentAgeS[0] ?? Number.NaN) / HOUR_S;
+    const coreAgeH = (state.equivalentAgeS[59] ?? Number.NaN) / HOUR_S;
+    // ASTM C1074 Arrhenius at 20 degC (reference) is real time: 6 h; at 40 degC with 40 kJ/mol
+    // the factor is exp(-40000/8.314 (1/313.15 - 1/293.15)) = 2.85 (computed by hand).
+    expect(surfaceAgeH).toBeCloseTo(6, 6);
+    expect(coreAgeH / 6).toBeCloseTo(2.85, 2);
+  });
+
+  it('slows hydration where the pores dry: the surface ages slower than the core under drying', () => {
+    const model = modelOf('cement-mortar-fine', 0.05);
+    const result = run(model, steadyWeather(30, 0.3, 6), 24);
+    const ages = result.state.equivalentAgeS;
+    expect(ages[0]).toBeLessThan(0.9 * (ages[ages.length - 1] ?? Number.NaN));
+  });
+});

@@ -59,13 +59,14 @@ export function surfaceEvaporation(
   const wet = evaporationFluxKgM2s(weather, { surfacePoreHumidity: 1, allowCondensation: true });
   const dry = evaporationFluxKgM2s(weather, { surfacePoreHumidity: 0, allowCondensation: true });
   const measured = inputs.measuredEvaporationKgM2s;
-  const scale =
-    (options.exposureMultiplier ?? 1) *
-    effective.fluxMultiplier *
-    (measured === undefined ? 1 : wet > 0 ? measured / wet : 0);
+  const multiplier = (options.exposureMultiplier ?? 1) * effective.fluxMultiplier;
   const rateKgM2s = (surfaceHumidity: number): number => {
     if (effective.heldSaturated) return 0;
-    const rate = scale * (dry + surfaceHumidity * (wet - dry));
+    let rate: number;
+    if (measured === undefined) rate = dry + surfaceHumidity * (wet - dry);
+    else if (wet > 0) rate = (measured * (dry + surfaceHumidity * (wet - dry))) / wet;
+    else rate = measured; // the estimate sees no drive: trust the measurement as it is
+    rate *= multiplier;
     return allowCondensation ? rate : Math.max(0, rate);
   };
   return { heldSaturated: effective.heldSaturated, potentialKgM2s: rateKgM2s(1), rateKgM2s };

@@ -1,0 +1,61 @@
+import fc from 'fast-check';
+import { describe, expect, it } from 'vitest';
+import { createPoreHydraulics } from '../../server/src/engine/poreHydraulics.ts';
+import { waterSurfaceTensionNPerM } from '../../server/src/physics/waterSurfaceTension.ts';
+
+const poreSizes = {
+  kind: 'lognormal' as const,
+  modes: [{ medianDiameterM: 0.05e-6, geometricSd: 3, volumeFraction: 1 }],
+};
+const make = () => createPoreHydraulics({ poreSizes, porosity: 0.15, tortuosity: 3, cellCount: 3 });
+
+describe('createPoreHydraulics()', () => {
+  it('its tabulated saturation agrees with the physics retention curve to 1e-4', () => {
+    const hydraulics = make();
+    for (const suctionPa of [1e4, 1e5, 1e6, 5e6, 2e7, 1e8]) {
+      const expected = hydraulics.retention.saturation(-suctionPa);
+      expect(Math.abs(hydraulics.saturationAt(0, -suctionPa) - expected)).toBeLessThan(1e-4);
+    }
+  });
+
+  it('water content is monotone in pressure and pressureForWaterContent() inverts it (property)', () => {
+    const hydraulics = make();
+    hydraulics.specificStoragePerPa.fill(1e-9);
+    fc.assert(
+      fc.property(
+        fc.double({ min: 3, max: 8.5, noNaN: true }),
+        fc.double({ min: 0.01, max: 0.5, noNaN: true }),
+        (logSuction, gap) => {
+          const pressure = -(10 ** logSuction);
+          const wetter = pressure * (1 - gap);
+          expect(hydraulics.waterContentAt(0, wetter)).toBeGreaterThanOrEqual(
+            hydraulics.waterContentAt(0, pressure),
+          );
+          const target = hydraulics.waterContentAt(0, pressure);
+          const found = hydraulics.pressureForWaterContent(0, target, wetter);
+          expect(Math.abs(hydraulics.waterContentAt(0, found) - target)).toBeLessThan(1e-12);
+        },
+      ),
+      { numRuns: 200 },
+    );
+  });
+
+  it('scales suction with surface tension (Young-Laplace) when a cell warms up', () => {
+    const hydraulics = make();
+    hydraulics.temperatureK[1] = 313.15;
+    hydraulics.refreshTemperature();
+    const ratio = waterSurfaceTensionNPerM(313.15) / waterSurfaceTensionNPerM(293.15);
+    // Same saturation at the suction scaled by gamma(T) / gamma(20 degC).
+    expect(hydraulics.saturationAt(1, -1e6 * ratio)).toBeCloseTo(
+      hydraulics.saturationAt(0, -1e6),
+      9,
+    );
+  });
+
+  it('refined pores (diameters halved) need twice the suction for the same saturation', () => {
+    const hydraulics = make();
+    hydraulics.diameterScale[2] = 0.5;
+    hydraulics.refreshScale();
+    expect(hydraulics.saturationAt(2, -2e6)).toBeCloseTo(hydraulics.saturationAt(0, -1e6), 9);
+  });
+});
