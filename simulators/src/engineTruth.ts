@@ -36,6 +36,7 @@ export function createEngineTruth(
       cellCount: truth.cellCount,
       permeabilityMultiplier: truth.permeabilityMultiplier,
       surface: { exposureMultiplier: truth.exposureMultiplier },
+      initialBleedFilmKgM2: truth.initialBleedFilmKgM2,
     },
   });
   const placedAtMs = Date.parse(truth.placedAt);
@@ -96,6 +97,9 @@ export function createEngineTruth(
     },
     evaporationKgM2h() {
       return lastEvaporationKgM2h;
+    },
+    surfaceSuctionPa() {
+      return Math.max(0, -(state.transport.pressurePa[0] as number));
     },
   };
 }

@@ -40,4 +40,10 @@ export interface HiddenTruth {
   temperatureCAt(depthMm: number): number;
   /** Evaporation from the surface over the last step, kg/(m2 h). */
   evaporationKgM2h(): number;
+  /**
+   * Capillary suction of the pore water in the surface cell, Pa (0 while saturated or under a
+   * bleed film): the plastic-phase risk figure's numerator (physics.md section 7). NaN for the
+   * stand-in, which has no pore water.
+   */
+  surfaceSuctionPa(): number;
 }

@@ -170,6 +170,8 @@ export const scenarioSchema = z
       cellCount: z.number().int().min(10).max(400).default(120),
       permeabilityMultiplier: between(0.05, 20, '(ratio)').default(1),
       exposureMultiplier: between(0.2, 5, '(ratio)').default(1),
+      /** Water film left on the surface by placing and finishing, kg/m2. */
+      initialBleedFilmKgM2: between(0, 5, 'kg/m2').default(0),
       /** Rise of the surface over the air temperature per 1000 W/m2 of sun, K. */
       solarGainKPerKWm2: between(0, 20, 'K per kW/m2').default(6),
       /** Time constant of the surface temperature following the air, min. */

@@ -82,5 +82,8 @@ export function createStandInTruth(
     evaporationKgM2h() {
       return evaporationKgM2s * 3600;
     },
+    surfaceSuctionPa() {
+      return Number.NaN;
+    },
   };
 }

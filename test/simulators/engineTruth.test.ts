@@ -1,0 +1,80 @@
+/**
+ * The engine as hidden truth under the demo scenario: the story the scenario tells holds in the
+ * truth. Without measures the surface suction passes the fresh mix's critical suction soon after
+ * the dry wind rises (the plastic-phase margin closes, physics.md section 7: U = -p_surface /
+ * p_crit); with the crew's fogging and windbreak it does not before 15:00.
+ */
+import { describe, expect, it } from 'vitest';
+import { curingMeasuresActiveAt } from '../../server/src/physics/curingMeasures.ts';
+import { loadMaterialPreset } from '../../server/src/engine/materialPreset.ts';
+import { createEngineTruth } from '../../simulators/src/engineTruth.ts';
+import type { HiddenTruth } from '../../simulators/src/hiddenTruth.ts';
+import { probeDepthsMm, toCuringMeasure } from '../../simulators/src/playScenario.ts';
+import { DEMO_SCENARIO, loadScenarioFolder } from '../../simulators/src/scenarioFolder.ts';
+import { utcOffsetMin } from '../../simulators/src/scenarioSchema.ts';
+import { scriptedWeatherAt } from '../../simulators/src/weatherScript.ts';
+
+const { scenario } = loadScenarioFolder(DEMO_SCENARIO);
+const criticalSuctionPa =
+  (loadMaterialPreset(scenario.truth.material).mix?.criticalSuctionKPa?.value ?? Number.NaN) * 1000;
+const at = (localTime: string) => Date.parse(`2026-07-16T${localTime}:00+02:00`);
+
+/** Plays the truth alone to `untilMs` under a measure log; returns the suction (Pa) every 5 min. */
+function playTruth(
+  logName: string,
+  untilMs: number,
+): { truth: HiddenTruth; suctionPa: Map<number, number> } {
+  const truth = createEngineTruth(scenario.truth, probeDepthsMm(scenario));
+  const measures = (scenario.measureLogs[logName] ?? []).map(toCuringMeasure);
+  const suctionPa = new Map<number, number>();
+  for (let timeMs = Date.parse(scenario.truth.placedAt); timeMs < untilMs; timeMs += 60_000) {
+    const weather = scriptedWeatherAt(scenario.weather, timeMs, utcOffsetMin(scenario.startAt));
+    truth.advanceTo(
+      timeMs + 60_000,
+      {
+        airTemperatureC: weather.airTemperatureC,
+        relativeHumidityPercent: weather.relativeHumidityPercent,
+        windAtMastMS: weather.windMS,
+        mastHeightM: scenario.weather.mastHeightM,
+        solarWm2: weather.solarWm2,
+        rainMmH: weather.rainMmH,
+      },
+      curingMeasuresActiveAt(measures, timeMs),
+    );
+    if ((timeMs + 60_000) % 300_000 === 0) suctionPa.set(timeMs + 60_000, truth.surfaceSuctionPa());
+  }
+  return { truth, suctionPa };
+}
+
+const firstCrossing = (series: Map<number, number>, limit: number) =>
+  [...series.entries()].find(([, value]) => value >= limit)?.[0] ?? null;
+
+describe('createEngineTruth() under the level3-topping scenario', () => {
+  it('the fresh mix has a critical suction to compare with (preset criticalSuctionKPa)', () => {
+    expect(criticalSuctionPa).toBeGreaterThan(0);
+  });
+
+  it('without measures the plastic margin closes after the dry wind rises (12:45) and before 14:00', () => {
+    const { truth, suctionPa } = playTruth('no-action', at('14:00'));
+    const crossing = firstCrossing(suctionPa, criticalSuctionPa);
+    expect(truth.kind).toBe('engine');
+    expect(crossing).not.toBeNull();
+    expect(crossing as number).toBeGreaterThan(at('12:45'));
+    expect(crossing as number).toBeLessThan(at('14:00'));
+  });
+
+  it("with the crew's fogging and windbreak the surface suction stays below it until 15:00", () => {
+    const { suctionPa } = playTruth('fogging', at('15:00'));
+    expect(firstCrossing(suctionPa, criticalSuctionPa)).toBeNull();
+  });
+
+  it('probe depths stay near saturation while the surface dries (a drying front from the top)', () => {
+    const { truth } = playTruth('no-action', at('17:30'));
+    const surface = truth.relativeHumidityPercentAt(0);
+    const deep = truth.relativeHumidityPercentAt(35);
+    expect(surface).toBeLessThan(deep);
+    expect(deep).toBeGreaterThan(95);
+    // the scripted thermal field: concrete warmed by the sun above the morning's 27 degC
+    expect(truth.temperatureCAt(5)).toBeGreaterThan(scenario.truth.placementTemperatureC);
+  });
+});
