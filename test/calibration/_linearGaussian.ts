@@ -1,6 +1,6 @@
 /**
  * Reference for the linear-Gaussian tests: the Kalman filter update written out with explicit
- * matrix inverses (Kalman 1960; e.g. Evensen 2009, *Data Assimilation*, 2nd ed., ch. 3 on the
+ * matrix inverses (Kalman 1960; e.g. Evensen 2009, *Data Assimilation*, 2nd ed., on the
  * Kalman filter, from memory), an ensemble drawn from a known Gaussian, and sample moments.
  * It uses ml-matrix's general inverse and Cholesky factor, not the code under test.
  */

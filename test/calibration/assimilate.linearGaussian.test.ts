@@ -13,7 +13,7 @@ import { augmented, drawGaussian, kalmanPosterior, sampleMoments } from './_line
 // Linear-Gaussian case: augmented vector z = [s0, s1, s2, b] (three state entries, one additive
 // bias parameter), two observations y_A = s0 + b, y_B = 0.5 s1 + s2. For a linear observation
 // operator a square-root ensemble filter updates the sample mean and covariance exactly as the
-// Kalman filter does (Tippett et al. 2003, MWR 131; Evensen 2009, ch. 9 on square-root schemes,
+// Kalman filter does (Tippett et al. 2003, MWR 131; Evensen 2009, on square-root schemes;
 // from memory); with many members both approach the analytic posterior within Monte Carlo error.
 const observationMatrix = [
   [1, 0, 0, 1],

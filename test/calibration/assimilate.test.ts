@@ -121,6 +121,27 @@ describe.each(methods)('assimilate() with missing observations ($name)', ({ meth
   });
 });
 
+describe('assimilate() with a non-finite entry', () => {
+  it.each(methods)('$name leaves that entry as it was and updates the others', ({ method }) => {
+    const prior = handMadeEnsemble();
+    const broken = prior.members.map((member, k) => {
+      const state = member.state.slice();
+      if (k === 2) state[1] = Number.NaN;
+      return { ...member, state };
+    });
+    const result = assimilate({ ...prior, members: broken }, [probeA], operator, noSpecs, layout, {
+      method,
+      inflation: { kind: 'none' },
+    });
+    expect(result.diagnostics.frozenRows).toEqual([1]);
+    result.ensemble.members.forEach((member, k) => {
+      expect(member.state[1]).toEqual(broken[k]?.state[1]);
+      expect(Number.isFinite(member.state[0])).toBe(true);
+      expect(member.state[0]).not.toBeCloseTo(broken[k]?.state[0] ?? NaN, 6);
+    });
+  });
+});
+
 describe('assimilate() with depth localisation (serial EnSRF, Gaspari-Cohn)', () => {
   it('leaves correlated entries beyond twice the half-width untouched, nearby ones fully updated', () => {
     // Entries 0 and 3 both correlate with probe A; with c = 5 mm an entry at 50 mm depth is

@@ -2,7 +2,7 @@ import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import { gaspariCohn } from '../../server/src/calibration/gaspariCohn.ts';
 
-// Gaspari and Cohn (1999), QJRMS 125, eq. (4.10): values at z = r / c worked by hand from the
+// Gaspari and Cohn (1999), QJRMS 125, eq. (4.10) (number from memory): values at z = r / c worked by hand from the
 // two polynomial branches (both give 5/24 at z = 1, and 0 at z = 2).
 describe('gaspariCohn()', () => {
   it.each([

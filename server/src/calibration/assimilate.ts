@@ -7,6 +7,7 @@
 import {
   addRowMeans,
   createEnsembleMatrix,
+  type EnsembleMatrix,
   removeRowMeans,
   rowSpreads,
 } from './_ensembleMatrix.ts';
@@ -82,13 +83,15 @@ export interface AssimilationDiagnostics {
   innovations: number[];
   /** Ensemble spread of each used prediction before the analysis, transformed space. */
   predictedSd: number[];
+  /** Analysis rows (state entries, then parameters) left unchanged: not finite in some member. */
+  frozenRows: number[];
 }
 
 /**
- * Assimilates `observations` into the ensemble and returns the analysis ensemble (members are
- * new objects whose `state` and `parameters` are views into one new buffer, never shared with
- * another member or with the forecast; `carried` is passed through; `random` and `timeS` are unchanged, `analysisCount`
- * counts up). Steps:
+ * Assimilates `observations` into the ensemble and returns the analysis ensemble. Members are
+ * new objects whose `state` and `parameters` are views into one new buffer (never shared with
+ * another member or with the forecast); `carried` is passed through; `random` and `timeS` are
+ * unchanged; `analysisCount` counts up. Steps:
  * 1. drop missing or invalid observations and those any member cannot predict; none left ->
  *    the ensemble is returned unchanged (no inflation either);
  * 2. analysis vector of member k: `[T_s(state_k); T_j(parameter_kj)]` (state transform,
@@ -97,6 +100,9 @@ export interface AssimilationDiagnostics {
  * 3. inflation of forecast perturbations (multiplicative: state and predictions alike, as Hunt
  *    et al. 2007 do through their factor rho);
  * 4. ETKF or serial EnSRF; 5. RTPS when chosen; 6. back-transform.
+ * An entry (state or parameter) that is not finite in its analysis space in some member (NaN,
+ * or a value at a log or logit bound) is left as it was in every member and listed in
+ * `frozenRows`, so one bad value cannot spread into the other entries.
  * Deterministic: no random draws, so it does not touch the generator.
  *
  * @param specs - the estimated parameters, in the members' parameter order.
@@ -120,6 +126,7 @@ export function assimilate<C>(
     skipped: [],
     innovations: [],
     predictedSd: [],
+    frozenRows: [],
   };
 
   const candidates = [...observations].sort((a, b) => (a.id < b.id ? -1 : a.id > b.id ? 1 : 0));
@@ -165,6 +172,8 @@ export function assimilate<C>(
 
   const stateTransform = layout.transform ?? { kind: 'identity' };
   const analysis = toAnalysisMatrix(members, specs, stateTransform);
+  const frozen = freezeNonFiniteRows(analysis);
+  diagnostics.frozenRows = frozen;
   const means = removeRowMeans(analysis);
   const predictedMeans = removeRowMeans(predicted);
   const innovations = observed.map((value, j) => value - (predictedMeans[j] ?? 0));
@@ -196,15 +205,46 @@ export function assimilate<C>(
     relaxToPriorSpread(analysis, forecastSpreads, inflation.alpha);
   }
   addRowMeans(analysis, means);
+  const updated = fromAnalysisMatrix(analysis, members, specs, stateTransform);
+  restorePhysicalValues(updated, members, frozen);
 
   return {
-    ensemble: {
-      ...ensemble,
-      members: fromAnalysisMatrix(analysis, members, specs, stateTransform),
-      analysisCount: ensemble.analysisCount + 1,
-    },
+    ensemble: { ...ensemble, members: updated, analysisCount: ensemble.analysisCount + 1 },
     diagnostics,
   };
+}
+
+/**
+ * Finds the rows with a non-finite value and zeroes them for the analysis (a zero row has no
+ * spread: it neither moves nor moves anything else); returns their indices.
+ */
+function freezeNonFiniteRows(matrix: EnsembleMatrix): number[] {
+  const { rowCount, memberCount, values } = matrix;
+  const frozen: number[] = [];
+  for (let i = 0; i < rowCount; i++) {
+    const row = values.subarray(i * memberCount, (i + 1) * memberCount);
+    if (row.every((value) => Number.isFinite(value))) continue;
+    frozen.push(i);
+    row.fill(0);
+  }
+  return frozen;
+}
+
+/** Puts the forecast's physical values back into the frozen rows (state rows first). */
+function restorePhysicalValues<C>(
+  updated: readonly EnsembleMember<C>[],
+  forecast: readonly EnsembleMember<C>[],
+  frozenRows: readonly number[],
+): void {
+  updated.forEach((member, k) => {
+    const before = forecast[k];
+    if (before === undefined) return;
+    const stateCount = before.state.length;
+    for (const row of frozenRows) {
+      if (row < stateCount) member.state[row] = before.state[row] ?? Number.NaN;
+      else member.parameters[row - stateCount] = before.parameters[row - stateCount] ?? Number.NaN;
+    }
+  });
 }
 
 /** Depth of every analysis row: the layout's for state rows, NaN (not localised) for parameters. */

@@ -2,8 +2,8 @@
  * Ensemble transform Kalman filter analysis (ETKF) with the symmetric square root: a
  * deterministic square-root ensemble Kalman filter, computed in the space of the members.
  * Bishop, Etherton and Majumdar (2001), Monthly Weather Review 129; Hunt, Kostelich and Szunyogh
- * (2007), Physica D 230, section 2.3 and eqs. (2.20)-(2.25)(from memory); the symmetric root keeps
- * the analysis mean at the Kalman mean (Wang, Bishop and Julier 2004, MWR 132; Sakov and Oke 2008,
+ * (2007), Physica D 230, section 2 (from memory); the symmetric root keeps the analysis mean at
+ * the Kalman mean (Wang, Bishop and Julier 2004, MWR 132; Sakov and Oke 2008,
  * MWR 136).
  */
 import { EigenvalueDecomposition, Matrix } from 'ml-matrix';

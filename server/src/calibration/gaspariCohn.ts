@@ -1,7 +1,9 @@
 /**
  * Gaspari-Cohn localisation weight: a compactly supported, fifth-order piecewise rational
  * correlation function that tapers spurious long-range ensemble covariances to zero.
- * Gaspari and Cohn (1999), Quarterly Journal of the Royal Meteorological Society 125, eq. (4.10).
+ * Gaspari and Cohn (1999), Quarterly Journal of the Royal Meteorological Society 125,
+ * eq. (4.10) (equation number from memory; the tests check the polynomial by hand: 5/24 at
+ * z = 1 from both branches, 0 at z = 2).
  *
  * With z = |distance| / c:
  * - 0 <= z <= 1: `-z^5/4 + z^4/2 + 5 z^3/8 - 5 z^2/3 + 1`

@@ -2,7 +2,7 @@
  * Serial ensemble square-root filter (EnSRF): observations with independent errors assimilated
  * one at a time, each a scalar Kalman update of the mean and a deterministic square-root update
  * of the perturbations, with optional covariance localisation in depth.
- * Whitaker and Hamill (2002), Monthly Weather Review 130, eqs. (4)-(5) and (13) (from memory);
+ * Whitaker and Hamill (2002), Monthly Weather Review 130, section 2 (equations recalled, not re-read: from memory);
  * localisation by a Schur product with the Gaspari-Cohn function (Houtekamer and Mitchell 2001,
  * MWR 129; Gaspari and Cohn 1999).
  */
