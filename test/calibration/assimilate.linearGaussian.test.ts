@@ -78,6 +78,44 @@ describe.each(methods)('assimilate() with the $name, linear-Gaussian case', ({ m
     );
   });
 
+  it('stays exact with more observations than members (5 members, 8 observations)', () => {
+    const manyRows = Array.from({ length: 8 }, (_, j) =>
+      [1, 0, 0, 0].map((_, i) => Math.cos(1 + i * (j + 1))),
+    );
+    const manyObservations: Observation[] = manyRows.map((_, j) => ({
+      id: `P${j}`,
+      value: 0.5 + 0.05 * j,
+      errorSd: 0.05 + 0.01 * j,
+      depthM: 0.01,
+    }));
+    const manyOperator: ObservationOperator = {
+      predict: (member) => {
+        const z = augmented(member);
+        return Float64Array.from(manyRows, (row) =>
+          row.reduce((sum, h, i) => sum + h * (z[i] ?? 0), 0),
+        );
+      },
+    };
+    const prior = ensembleOf(drawGaussian(priorMean, priorCovariance, 5, createEnsembleRandom(8)));
+    const forecast = sampleMoments(prior.members.map(augmented));
+    const expected = kalmanPosterior(
+      forecast.mean,
+      forecast.covariance,
+      manyRows,
+      manyObservations.map((o) => o.value),
+      manyObservations.map((o) => o.errorSd),
+    );
+    const { ensemble } = assimilate(prior, manyObservations, manyOperator, specs, layout, {
+      method,
+      inflation: { kind: 'none' },
+    });
+    const analysis = sampleMoments(ensemble.members.map(augmented));
+    analysis.mean.forEach((value, i) => expect(value).toBeCloseTo(expected.mean[i] ?? NaN, 11));
+    analysis.covariance.forEach((row, i) =>
+      row.forEach((value, j) => expect(value).toBeCloseTo(expected.covariance[i]?.[j] ?? NaN, 11)),
+    );
+  });
+
   it('matches the analytic posterior within Monte Carlo error with 2000 members', () => {
     const memberCount = 2000;
     const prior = ensembleOf(
