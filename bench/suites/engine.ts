@@ -8,6 +8,7 @@
 import { createElementModel } from '../../server/src/engine/elementModel.ts';
 import { loadMaterialPreset } from '../../server/src/engine/materialPreset.ts';
 import { simulateElement, type WeatherSample } from '../../server/src/engine/simulateElement.ts';
+import { createWorkspace, implicitStep } from '../../server/src/engine/implicitStep.ts';
 import { solveTridiagonal } from '../../server/src/engine/tridiagonal.ts';
 import { availableParallelism, loadavg } from 'node:os';
 import { type BenchFigure, type BenchSuite, ratioFigure } from '../figure.ts';
@@ -30,13 +31,31 @@ function dailyWeather(days: number): WeatherSample[] {
   return samples;
 }
 
-function timedRun(cellCount: number, hours: number): { ms: number; steps: number } {
-  const model = createElementModel({
+function createModel(cellCount: number) {
+  return createElementModel({
     material: loadMaterialPreset('normal-concrete'),
     thicknessM: 0.15,
     dryingCase: 'one-face',
     options: { cellCount },
   });
+}
+
+/** Shortest of `repetitions` timed 24 h-style runs (the machine is shared: the minimum is the cost). */
+function timedRun(
+  cellCount: number,
+  hours: number,
+  repetitions = 3,
+): { ms: number; steps: number } {
+  let best = { ms: Number.POSITIVE_INFINITY, steps: 0 };
+  for (let repetition = 0; repetition < repetitions; repetition += 1) {
+    const run = onceTimed(cellCount, hours);
+    if (run.ms < best.ms) best = run;
+  }
+  return best;
+}
+
+function onceTimed(cellCount: number, hours: number): { ms: number; steps: number } {
+  const model = createModel(cellCount);
   const start = performance.now();
   const result = simulateElement({
     model,
@@ -81,12 +100,58 @@ function fittedExponent(xs: readonly number[], ys: readonly number[]): number {
   return covariance / variance;
 }
 
+/** Nanoseconds per cell of one implicit transport step (all its Newton iterations), best of 5. */
+function transportStepNsPerCell(cellCount: number): { ns: number; iterations: number } {
+  const model = createModel(cellCount);
+  const state = model.initialState(297.15);
+  const inputs = {
+    airTemperatureK: 297.15,
+    relativeHumidity: 0.5,
+    windMS: 3,
+    surfaceTemperatureK: 297.15,
+  };
+  model.advanceTo(state, 6 * HOUR_S, inputs); // a drying front near the surface
+  model.applyState(state);
+  const workspace = createWorkspace(cellCount);
+  const next = new Float64Array(cellCount);
+  const surface = { kind: 'outflow' as const, volumeFluxMs: () => 2e-7 };
+  const repetitions = 400;
+  let best = Number.POSITIVE_INFINITY;
+  let iterations = 0;
+  for (let batch = 0; batch < 5; batch += 1) {
+    const start = performance.now();
+    for (let i = 0; i < repetitions; i += 1) {
+      iterations = implicitStep(
+        model.grid,
+        model.hydraulics,
+        workspace,
+        state.transport.pressurePa,
+        next,
+        300,
+        surface,
+      ).iterations;
+    }
+    best = Math.min(best, ((performance.now() - start) * 1e6) / (repetitions * cellCount));
+  }
+  return { ns: best, iterations };
+}
+
 const suite: BenchSuite = async () => {
-  timedRun(60, 6); // warm-up (JIT)
+  timedRun(60, 6, 1); // warm-up (JIT)
+  const bareNs = thomasNsPerCell(60);
+  const transport = transportStepNsPerCell(60);
   const reference = timedRun(60, 24);
   const nsPerCellStep = (reference.ms * 1e6) / (reference.steps * 60);
-  const bareNs = thomasNsPerCell(60);
   const figures: BenchFigure[] = [
+    ratioFigure({
+      name: 'engine.transportStepCostPerCellVsTridiagonal',
+      value: transport.ns,
+      unit: 'ns per cell-step',
+      baseline: bareNs,
+      target: 'ratio <= 20',
+      met: transport.ns / bareNs <= 20,
+      detail: `one backward-Euler step of 300 s at a drying front, 60 cells, ${transport.iterations} Newton iterations (each: one bulk property evaluation with analytic dK/dp, assembly, one Thomas solve) plus the final mass check; best of 5 batches; load average ${loadavg()[0]?.toFixed(1)} on ${availableParallelism()} cores`,
+    }),
     ratioFigure({
       name: 'engine.costPerCellStepVsTridiagonal',
       value: nsPerCellStep,
@@ -94,7 +159,7 @@ const suite: BenchSuite = async () => {
       baseline: bareNs,
       target: 'ratio <= 20',
       met: nsPerCellStep / bareNs <= 20,
-      detail: `24 h of daily weather, normal-concrete, 150 mm, 60 cells: ${reference.steps} steps in ${reference.ms.toFixed(0)} ms (each step: Newton iterations, each with two bulk property evaluations and one Thomas solve, plus maturity, refinement and output); load average ${loadavg()[0]?.toFixed(1)} on ${availableParallelism()} cores`,
+      detail: `whole model, best of 3: 24 h of daily weather, normal-concrete, 150 mm, 60 cells: ${reference.steps} steps in ${reference.ms.toFixed(0)} ms (each step: Newton iterations, each with two bulk property evaluations and one Thomas solve, plus maturity, refinement and output); load average ${loadavg()[0]?.toFixed(1)} on ${availableParallelism()} cores`,
     }),
   ];
   const cellCounts = [30, 60, 120, 240, 480];
