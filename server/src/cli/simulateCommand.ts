@@ -391,6 +391,7 @@ async function run(flags: FlagReader, context: CommandContext) {
     minMarginMPa: result.minMarginPa / 1e6,
     maxUtilization: result.maxUtilization,
     waterLossKgM2: result.waterLossKgM2,
+    storageWaterReleasedKgM2: -result.state.transport.storageWaterM * model.liquidDensityKgPerM3,
   };
   const shown = series.filter(
     (_, index) =>
