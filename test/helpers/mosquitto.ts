@@ -4,7 +4,7 @@
  * slow subscriber). Started as root it drops to the `mosquitto` user, so the folder is made
  * world-readable and, with persistence, world-writable.
  */
-import { spawn } from 'node:child_process';
+import { execFileSync, spawn } from 'node:child_process';
 import type { ChildProcess } from 'node:child_process';
 import { chmodSync, mkdtempSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
@@ -24,18 +24,33 @@ export interface Mosquitto {
   dispose(): Promise<void>;
 }
 
-export async function startMosquitto(options: { persistence?: boolean } = {}): Promise<Mosquitto> {
+/**
+ * @param options.persistence - keep sessions and queued messages across restarts (saved on stop)
+ * @param options.users - user name to password; when given, anonymous clients are refused
+ */
+export async function startMosquitto(
+  options: { persistence?: boolean; users?: Record<string, string> } = {},
+): Promise<Mosquitto> {
   const dir = mkdtempSync(join(tmpdir(), 'meniscus-mosquitto-'));
   chmodSync(dir, 0o777);
   const port = await freePort();
   const lines = [
     `listener ${port} 127.0.0.1`,
-    'allow_anonymous true',
     'max_queued_messages 0',
     'log_dest stdout',
     'log_type error',
     'log_type warning',
   ];
+  if (options.users === undefined) lines.push('allow_anonymous true');
+  else {
+    const passwordFile = join(dir, 'passwd');
+    for (const [user, password] of Object.entries(options.users)) {
+      const create = Object.keys(options.users)[0] === user ? ['-c'] : [];
+      execFileSync('/usr/bin/mosquitto_passwd', ['-b', ...create, passwordFile, user, password]);
+    }
+    chmodSync(passwordFile, 0o644);
+    lines.push('allow_anonymous false', `password_file ${passwordFile}`);
+  }
   if (options.persistence === true) {
     lines.push('persistence true', `persistence_location ${dir}/`, 'autosave_interval 1');
   } else lines.push('persistence false');
