@@ -50,6 +50,8 @@ export {
   logNormalPrior,
 } from './parameterPrior.ts';
 export type { ParameterSpec } from './parameterPrior.ts';
+export { summariseParameters } from './parameterSummary.ts';
+export type { ParameterSummary } from './parameterSummary.ts';
 export { quantileOfSorted } from './quantile.ts';
 export {
   RH_CLASS_2_PERCENT,
