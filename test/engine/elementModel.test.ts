@@ -217,3 +217,45 @@ describe('element model maturity by depth (physics.md section 6)', () => {
     expect(ages[0]).toBeLessThan(0.9 * (ages[ages.length - 1] ?? Number.NaN));
   });
 });
+
+describe('element model options', () => {
+  it('refines the pores as the concrete hydrates (physics.md section 2, default on) and not when off', () => {
+    const weather = steadyWeather(20, 0.9, 1);
+    const refined = run(modelOf('normal-concrete', 0.1), weather, 24).state.diameterScale;
+    const fixed = run(
+      modelOf('normal-concrete', 0.1, 'one-face', { poreRefinement: false }),
+      weather,
+      24,
+    ).state.diameterScale;
+    expect(refined[30]).toBeLessThan(0.6);
+    expect(Array.from(fixed).every((scale) => scale === 1)).toBe(true);
+  });
+
+  it('vapour diffusion (default on) lets the surface keep drying after the liquid path breaks', () => {
+    const weather = steadyWeather(35, 0.3, 8);
+    const withVapour = run(modelOf('building-stone-coarse', 0.05), weather, 24).waterLossKgM2;
+    const liquidOnly = run(
+      modelOf('building-stone-coarse', 0.05, 'one-face', { vapourDiffusion: false }),
+      weather,
+      24,
+    ).waterLossKgM2;
+    expect(withVapour).toBeGreaterThan(liquidOnly);
+  });
+
+  it('curl acts as flat for two-face drying (a symmetric profile has no linear part)', async () => {
+    const { createElementModel } = await import('../../server/src/engine/elementModel.ts');
+    const { loadMaterialPreset } = await import('../../server/src/engine/materialPreset.ts');
+    const peak = (stressMode: 'flat' | 'curl') =>
+      run(
+        createElementModel({
+          material: loadMaterialPreset('cement-mortar-fine'),
+          thicknessM: 0.04,
+          dryingCase: 'two-face',
+          stressMode,
+        }),
+        steadyWeather(30, 0.4, 5),
+        6,
+      ).maxSurfaceStressPa;
+    expect(peak('curl')).toBe(peak('flat'));
+  });
+});
