@@ -152,10 +152,10 @@ export const scenarioSchema = z
     description: z.string().max(4000).default(''),
     /** Seed of every random draw (noise, gusts, dropouts): same seed, same readings. */
     seed: z
-      .number()
+      .number({ error: 'must be a whole number' })
       .int({ error: 'must be a whole number' })
-      .min(0)
-      .max(2 ** 32 - 1),
+      .min(0, { error: 'must be at least 0' })
+      .max(2 ** 32 - 1, { error: `must be at most ${2 ** 32 - 1}` }),
     /** Event time the simulation starts and how long it plays. */
     startAt: isoTime,
     durationH: between(0.1, 72, 'h'),
@@ -167,7 +167,12 @@ export const scenarioSchema = z
       placedAt: isoTime,
       placementTemperatureC: between(1, 45, 'degC'),
       /** Cells of the truth's grid: finer than the server's 60 (our assumption). */
-      cellCount: z.number().int().min(10).max(400).default(120),
+      cellCount: z
+        .number({ error: 'must be a whole number' })
+        .int({ error: 'must be a whole number' })
+        .min(10, { error: 'must be at least 10' })
+        .max(400, { error: 'must be at most 400' })
+        .default(120),
       permeabilityMultiplier: between(0.05, 20, '(ratio)').default(1),
       exposureMultiplier: between(0.2, 5, '(ratio)').default(1),
       /** Water film left on the surface by placing and finishing, kg/m2. */
