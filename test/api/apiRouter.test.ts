@@ -140,6 +140,27 @@ describe('/api', () => {
     );
   });
 
+  it('GET /runs/:id lists each sensor with its latest reading and update interval', async () => {
+    const id = await runWithReadings();
+    const run = (await (await fetch(`${base}/runs/${id}`)).json()) as {
+      sensors: Record<string, unknown>[];
+    };
+    expect(run.sensors.find((s) => s.device === 'probe-a' && s.sensor === 'rh-10')).toMatchObject({
+      role: 'probe',
+      quantity: 'rh',
+      unit: '%RH',
+      depthMm: 10,
+      readings: 3,
+      lastEventAt: new Date(EXAMPLE_PLACED_AT_MS + 180_000).toISOString(),
+    });
+    expect(run.sensors.find((s) => s.sensor === 'wind')).toMatchObject({
+      role: 'weather',
+      readings: 0,
+      lastEventAt: null,
+    });
+    expect(run.sensors).toHaveLength(8);
+  });
+
   it('GET /runs/:id/quarantine lists rejected messages with reason and raw bytes', async () => {
     const id = await runWithReadings();
     const body = (await (await fetch(`${base}/runs/${id}/quarantine`)).json()) as {

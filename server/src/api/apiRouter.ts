@@ -112,7 +112,15 @@ function runSummary(run: RunRecord) {
 }
 
 function runDetail(run: RunRecord, archive: Archive) {
-  return { ...runSummary(run), config: run.config, counts: archive.counts(run.id) };
+  const iso = (ms: number | null) => (ms === null ? null : new Date(ms).toISOString());
+  const sensors = archive
+    .sensorSummaries(run.id)
+    .map(({ deviceStatusAtMs, lastEventAtMs, ...rest }) => ({
+      ...rest,
+      deviceStatusAt: iso(deviceStatusAtMs),
+      lastEventAt: iso(lastEventAtMs),
+    }));
+  return { ...runSummary(run), config: run.config, counts: archive.counts(run.id), sensors };
 }
 
 function readingJson(reading: StoredReading) {

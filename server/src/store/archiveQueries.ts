@@ -14,6 +14,20 @@ export interface ReadingFilter {
   limit?: number;
 }
 
+export interface SensorSummary {
+  device: string;
+  role: 'probe' | 'weather';
+  deviceStatus: string | null;
+  deviceStatusAtMs: number | null;
+  sensor: string;
+  quantity: string;
+  unit: string;
+  depthMm: number | null;
+  readings: number;
+  lastEventAtMs: number | null;
+  updateIntervalS: number | null;
+}
+
 interface RunRow {
   id: string;
   site: string;
@@ -170,6 +184,25 @@ export class ArchiveQueries {
       quarantine: count('quarantine'),
       records: count('records'),
     };
+  }
+
+  /**
+   * Every sensor of a run with its device's status and its latest reading: what a dashboard
+   * needs to show a silent sensor (no reading for longer than its `ut`).
+   */
+  sensorSummaries(runId: string): SensorSummary[] {
+    return this.db
+      .prepare(
+        `SELECT d.name AS device, d.role, d.status AS deviceStatus, d.status_at_ms AS deviceStatusAtMs,
+                s.name AS sensor, s.quantity, s.unit, s.depth_mm AS depthMm,
+                (SELECT COUNT(*) FROM readings r WHERE r.sensor_id = s.id) AS readings,
+                (SELECT MAX(event_at_ms) FROM readings r WHERE r.sensor_id = s.id) AS lastEventAtMs,
+                (SELECT update_interval_s FROM readings r WHERE r.sensor_id = s.id
+                  ORDER BY event_at_ms DESC LIMIT 1) AS updateIntervalS
+           FROM devices d JOIN sensors s ON s.device_id = d.id
+          WHERE d.run_id = ? ORDER BY d.name, s.name`,
+      )
+      .all(runId) as SensorSummary[];
   }
 
   /** A run's record order: `[seq, kind, rowId]` rows from `fromSeq` on. */
