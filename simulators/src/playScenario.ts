@@ -11,6 +11,12 @@ import { createEngineTruth } from './engineTruth.ts';
 import type { HiddenTruth, TruthWeather } from './hiddenTruth.ts';
 import { connectDevice } from './mqttDevice.ts';
 import type { DeviceConnection } from './mqttDevice.ts';
+
+/** A device's login on a broker with authentication. */
+export interface DeviceCredentials {
+  username?: string;
+  password?: string;
+}
 import { checkSpeed, realClock } from './playClock.ts';
 import type { PlayClock } from './playClock.ts';
 import { ProbeStringSimulator } from './probeString.ts';
@@ -38,9 +44,8 @@ export interface PlayOptions {
   signal?: AbortSignal;
   /** Play only this many hours of event time (the scenario's durationH by default). */
   durationH?: number;
-  /** Device credentials on a broker with authentication; the same for every device. */
-  username?: string;
-  password?: string;
+  /** Credentials of a device on a broker with authentication (username, password); none by default. */
+  credentialsFor?: (device: string) => DeviceCredentials;
   /** Called once when a measure of the log starts, in event time (e.g. to log it on the server). */
   onMeasureStart?: (measure: ScenarioMeasure) => void | Promise<void>;
   /** Called after each round of packs with the event time reached. */
@@ -110,15 +115,16 @@ export async function playScenario(options: PlayOptions): Promise<PlayResult> {
   const probes = scenario.probeStrings.map(
     (spec) => new ProbeStringSimulator(spec, scenario.seed, startMs, scenario.faults),
   );
-  const credentials = {
-    ...(options.username === undefined ? {} : { username: options.username }),
-    ...(options.password === undefined ? {} : { password: options.password }),
-  };
   const connections = new Map<string, DeviceConnection>();
   for (const device of [station.device, ...probes.map((probe) => probe.device)]) {
     connections.set(
       device,
-      await connectDevice({ url: options.url, site: options.site, device, ...credentials }),
+      await connectDevice({
+        url: options.url,
+        site: options.site,
+        device,
+        ...(options.credentialsFor?.(device) ?? {}),
+      }),
     );
   }
   // Probes report from placement (they are cast in); the station from the start.

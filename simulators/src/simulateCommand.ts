@@ -1,0 +1,166 @@
+/**
+ * Command line of the simulators alone (`node simulators/bin/simulate.js`): plays a scenario
+ * against any broker, e.g. a site box's Mosquitto with one password per device. Creates no run:
+ * post the scenario's run.json to the server first. Bad flags: exit code 2 and a one-line
+ * message on stderr.
+ */
+import { readFileSync } from 'node:fs';
+import { Command, CommanderError, InvalidArgumentError } from 'commander';
+import { hostilePayloads } from './hostilePayloads.ts';
+import { connectDevice } from './mqttDevice.ts';
+import { checkSpeed } from './playClock.ts';
+import { playScenario, probeDepthsMm } from './playScenario.ts';
+import type { DeviceCredentials } from './playScenario.ts';
+import { DEMO_SCENARIO, loadScenarioFolder } from './scenarioFolder.ts';
+import { createStandInTruth } from './standInTruth.ts';
+
+/**
+ * Reads a passwords file: one `device:password` per line (the form deploy/mosquitto/
+ * make-passwords.sh takes); blank lines and lines starting with `#` are skipped.
+ *
+ * @throws Error naming the line that is not `device:password`
+ */
+export function parsePasswords(text: string): Map<string, string> {
+  const passwords = new Map<string, string>();
+  text.split(/\r?\n/).forEach((line, index) => {
+    const trimmed = line.trim();
+    if (trimmed === '' || trimmed.startsWith('#')) return;
+    const colon = trimmed.indexOf(':');
+    if (colon <= 0 || colon === trimmed.length - 1) {
+      throw new Error(
+        `passwords line ${index + 1} must be device:password: got ${JSON.stringify(trimmed.slice(0, 40))}`,
+      );
+    }
+    passwords.set(trimmed.slice(0, colon), trimmed.slice(colon + 1));
+  });
+  return passwords;
+}
+
+const speedFlag = (text: string) => {
+  try {
+    return checkSpeed(Number(text));
+  } catch (error) {
+    throw new InvalidArgumentError((error as Error).message);
+  }
+};
+const seedFlag = (text: string) => {
+  const seed = Number(text);
+  if (!(Number.isInteger(seed) && seed >= 0 && seed < 2 ** 32)) {
+    throw new InvalidArgumentError(
+      `seed must be a whole number from 0 to ${2 ** 32 - 1}: got ${text}`,
+    );
+  }
+  return seed;
+};
+
+/** Runs the simulators; resolves with the exit code. */
+export async function simulateMain(argv: readonly string[]): Promise<number> {
+  const program = new Command('simulate')
+    .exitOverride()
+    .configureOutput({ writeErr: (text) => process.stderr.write(text) })
+    .option('--scenario <name>', 'scenario name or folder', DEMO_SCENARIO)
+    .option('--url <url>', 'broker URL', 'mqtt://127.0.0.1:1883')
+    .option('--speed <times>', 'event time per wall time, 1 to 120', speedFlag, 60)
+    .option('--measures <log>', "measure log of the scenario (the scenario's default)")
+    .option('--seed <n>', "random seed (the scenario's)", seedFlag)
+    .option(
+      '--duration-h <hours>',
+      "hours of event time to play (the scenario's)",
+      (text: string) => {
+        const hours = Number(text);
+        if (!(hours > 0 && hours <= 72)) {
+          throw new InvalidArgumentError(`duration-h must be between 0 and 72 h: got ${text}`);
+        }
+        return hours;
+      },
+    )
+    .option(
+      '--passwords <file>',
+      'device:password per line; each device logs in with its id as username',
+    )
+    .option('--hostile', 'first send a set of malformed and hostile payloads from the first probe')
+    .option(
+      '--stand-in-truth',
+      'use the simple stand-in instead of the engine (plumbing checks only)',
+    );
+  try {
+    program.parse([...argv], { from: 'user' });
+  } catch (error) {
+    if (error instanceof CommanderError) return error.exitCode === 0 ? 0 : 2;
+    throw error;
+  }
+  const flags = program.opts<{
+    scenario: string;
+    url: string;
+    speed: number;
+    measures?: string;
+    seed?: number;
+    durationH?: number;
+    passwords?: string;
+    hostile?: boolean;
+    standInTruth?: boolean;
+  }>();
+  let loaded;
+  let passwords = new Map<string, string>();
+  try {
+    loaded = loadScenarioFolder(flags.scenario);
+    if (flags.passwords !== undefined)
+      passwords = parsePasswords(readFileSync(flags.passwords, 'utf8'));
+  } catch (error) {
+    process.stderr.write(`${(error as Error).message}\n`);
+    return 2;
+  }
+  const scenario =
+    flags.seed === undefined ? loaded.scenario : { ...loaded.scenario, seed: flags.seed };
+  const site = loaded.runConfig.site;
+  const credentialsFor = (device: string): DeviceCredentials => {
+    const password = passwords.get(device);
+    return password === undefined ? {} : { username: device, password };
+  };
+  const controller = new AbortController();
+  for (const signal of ['SIGINT', 'SIGTERM'] as const)
+    process.once(signal, () => controller.abort());
+  try {
+    if (flags.hostile === true) {
+      const probe = scenario.probeStrings[0];
+      const sensor = probe?.sensors.find((s) => s.quantity === 'temperature')?.sensor ?? 'unknown';
+      if (probe !== undefined) {
+        const device = await connectDevice({
+          url: flags.url,
+          site,
+          device: probe.device,
+          ...credentialsFor(probe.device),
+        });
+        for (const hostile of hostilePayloads(sensor)) {
+          await device.publish(hostile.payload(probe.device, Date.parse(scenario.startAt)));
+          console.log(
+            `sent ${hostile.what} (the server should quarantine it as ${hostile.reason})`,
+          );
+        }
+        await device.close();
+      }
+    }
+    console.log(`playing ${scenario.name} at ${flags.speed}x to ${flags.url} (site ${site})`);
+    const result = await playScenario({
+      scenario,
+      site,
+      url: flags.url,
+      speed: flags.speed,
+      ...(flags.measures === undefined ? {} : { measureLog: flags.measures }),
+      ...(flags.durationH === undefined ? {} : { durationH: flags.durationH }),
+      ...(flags.standInTruth === true
+        ? { truth: createStandInTruth(scenario.truth, probeDepthsMm(scenario)) }
+        : {}),
+      credentialsFor,
+      signal: controller.signal,
+      onMeasureStart: (measure) => console.log(`measure ${measure.kind} starts ${measure.startAt}`),
+    });
+    console.log(
+      `done: ${result.packsSent} packs sent, ${result.packsDropped} lost on purpose, ${result.packsSilenced} held back by scripted silence`,
+    );
+    return 0;
+  } catch (error) {
+    process.stderr.write(`${(error as Error).message}\n`);
+    return error instanceof RangeError ? 2 : 1;
+  }
+}
