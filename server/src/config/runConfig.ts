@@ -26,6 +26,7 @@ const numberBetween = (min: number, max: number, unit: string) =>
     .min(min, { error: `must be at least ${min} ${unit}` })
     .max(max, { error: `must be at most ${max} ${unit}` });
 
+/** Kinds of element a run may watch (terms of the trade). */
 export const ELEMENT_KINDS = [
   'slab',
   'deck',
@@ -67,6 +68,7 @@ const weatherSchema = z.strictObject({
   }),
 });
 
+/** The zod schema of a run configuration; use parseRunConfig() for messages a person can act on. */
 export const runConfigSchema = z
   .strictObject({
     /** Site id, used as a topic level: `meniscus/<site>/<device>/data`. */

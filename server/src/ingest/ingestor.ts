@@ -39,6 +39,7 @@ interface Pending {
   reject: (error: unknown) => void;
 }
 
+/** Classifies messages and commits them in groups; see the file comment. */
 export class Ingestor {
   readonly #archive: Archive;
   readonly #clock: () => number;

@@ -18,6 +18,7 @@ export interface TimeLimits {
   beforePlacementMs: number;
 }
 
+/** 5 min ahead of receipt, 1 h before placement (our assumptions, see TimeLimits). */
 export const DEFAULT_TIME_LIMITS: TimeLimits = {
   futureToleranceMs: 5 * 60_000,
   beforePlacementMs: 60 * 60_000,

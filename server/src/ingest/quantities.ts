@@ -40,6 +40,7 @@ const TEMPERATURE: QuantitySpec = {
     'range of the fresh and early-age concrete and site air this tool watches (our assumption)',
 };
 
+/** Canonical unit and possible range of each quantity, with the origin of each range. */
 export const QUANTITIES: Readonly<Record<Quantity, QuantitySpec>> = {
   rh: RELATIVE_HUMIDITY,
   temperature: TEMPERATURE,

@@ -26,6 +26,7 @@ export const QUARANTINE_BYTES_KEPT = 64 * 1024;
 
 type RecordKind = 'config' | 'message' | 'reading' | 'quarantine' | 'event';
 
+/** The archive of every run: writes here, reads inherited from ArchiveQueries. Single writer per file. */
 export class Archive extends ArchiveQueries {
   readonly #nextSeq = new Map<string, number>();
   #bindings: Map<string, DeviceBinding[]> | null = null;
@@ -163,6 +164,7 @@ export class Archive extends ArchiveQueries {
     return this.db.transaction(() => this.#appendEventRow(runId, atMs, kind, detail))();
   }
 
+  /** Closes the database (SQLite checkpoints the WAL into the file). */
   close(): void {
     this.db.close();
   }

@@ -44,6 +44,7 @@ const READING_COLUMNS = `
   FROM readings rd JOIN sensors s ON s.id = rd.sensor_id JOIN devices d ON d.id = s.device_id
   JOIN runs r ON r.id = rd.run_id`;
 
+/** Read-only queries over an open archive database. */
 export class ArchiveQueries {
   protected readonly db: Database.Database;
 
@@ -51,6 +52,7 @@ export class ArchiveQueries {
     this.db = db;
   }
 
+  /** The run with this id, or null. */
   getRun(id: string): RunRecord | null {
     const row = this.db.prepare('SELECT * FROM runs WHERE id = ?').get(id) as RunRow | undefined;
     return row === undefined ? null : toRun(row);
@@ -118,6 +120,7 @@ export class ArchiveQueries {
     return row?.id ?? 0;
   }
 
+  /** Moves the outbox cursor `name` to `lastReadingId` (the last reading delivered). */
   setOutboxCursor(name: string, lastReadingId: number): void {
     this.db
       .prepare(

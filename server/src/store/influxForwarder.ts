@@ -15,6 +15,7 @@ import type { InfluxSettings } from '../config/serverConfig.ts';
 import type { Archive } from './archive.ts';
 import type { StoredReading } from './types.ts';
 
+/** Measurement name of every reading written to InfluxDB. */
 export const INFLUX_MEASUREMENT = 'meniscus_reading';
 const CURSOR = 'influx';
 
@@ -60,6 +61,7 @@ export function readingPoint(reading: StoredReading): Point {
   return point;
 }
 
+/** The outbox loop: polls the archive, writes batches, moves the cursor after each flush. */
 export class InfluxForwarder {
   readonly #archive: Archive;
   readonly #settings: InfluxSettings;
@@ -121,6 +123,7 @@ export class InfluxForwarder {
     return readings.length;
   }
 
+  /** Backlog, cursor and the last error, for GET /api/health. */
   state(): ForwarderState {
     const cursor = this.#archive.outboxCursor(CURSOR);
     return {
