@@ -10,12 +10,17 @@ import { chmodSync, mkdtempSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { freePort, waitForPort } from './freePort.ts';
+import { makeTestCertificates } from './testCertificates.ts';
+import type { TestCertificates } from './testCertificates.ts';
 
 export const MOSQUITTO_BINARY = '/usr/sbin/mosquitto';
 
 export interface Mosquitto {
   port: number;
+  /** `mqtt://` or, with TLS, `mqtts://` and the port. */
   url: string;
+  /** The CA and server certificate, when started with TLS. */
+  certificates: TestCertificates | null;
   /** Stops it (SIGTERM, which also saves persistence) and waits for the exit. */
   stop(): Promise<void>;
   /** Starts it again on the same port with the same files. */
@@ -27,9 +32,10 @@ export interface Mosquitto {
 /**
  * @param options.persistence - keep sessions and queued messages across restarts (saved on stop)
  * @param options.users - user name to password; when given, anonymous clients are refused
+ * @param options.tls - listen with TLS only, with a certificate from a throw-away CA
  */
 export async function startMosquitto(
-  options: { persistence?: boolean; users?: Record<string, string> } = {},
+  options: { persistence?: boolean; users?: Record<string, string>; tls?: boolean } = {},
 ): Promise<Mosquitto> {
   const dir = mkdtempSync(join(tmpdir(), 'meniscus-mosquitto-'));
   chmodSync(dir, 0o777);
@@ -41,6 +47,14 @@ export async function startMosquitto(
     'log_type error',
     'log_type warning',
   ];
+  const certificates = options.tls === true ? makeTestCertificates(dir) : null;
+  if (certificates !== null) {
+    lines.push(
+      `cafile ${certificates.caFile}`,
+      `certfile ${certificates.certFile}`,
+      `keyfile ${certificates.keyFile}`,
+    );
+  }
   if (options.users === undefined) lines.push('allow_anonymous true');
   else {
     const passwordFile = join(dir, 'passwd');
@@ -73,7 +87,8 @@ export async function startMosquitto(
   await start();
   return {
     port,
-    url: `mqtt://127.0.0.1:${port}`,
+    url: `${certificates === null ? 'mqtt' : 'mqtts'}://127.0.0.1:${port}`,
+    certificates,
     start,
     stop,
     async dispose() {

@@ -3,6 +3,7 @@
  * in, keeps its persistent session while it is away (MQTT 5 session expiry), and reports a
  * refused login in its state instead of crashing.
  */
+import { readFileSync } from 'node:fs';
 import mqtt from 'mqtt';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { parseRunConfig } from '../../server/src/config/runConfig.ts';
@@ -91,4 +92,61 @@ describe('startMqttSubscriber()', () => {
     await subscriber.close();
     archive.close();
   });
+});
+
+describe('startMqttSubscriber() over TLS', () => {
+  it(
+    'connects with the configured CA file and refuses a broker it cannot verify',
+    { timeout: 30_000 },
+    async () => {
+      const tlsBroker = await startMosquitto({ tls: true });
+      const archive = Archive.open(':memory:');
+      archive.createRun(
+        parseRunConfig(
+          exampleRunInput({ placedAt: new Date(Date.now() - 3_600_000).toISOString() }),
+        ),
+        Date.now(),
+        'run-1',
+      );
+      const ingestor = new Ingestor(archive);
+      const caFile = tlsBroker.certificates?.caFile ?? '';
+      const trusted = startMqttSubscriber(ingestor, {
+        url: tlsBroker.url,
+        clientId: 'meniscus-tls',
+        caFile,
+        reconnectPeriodMs: 100,
+      });
+      const untrusted = startMqttSubscriber(ingestor, {
+        url: tlsBroker.url,
+        clientId: 'meniscus-tls-no-ca',
+        reconnectPeriodMs: 100,
+      });
+      try {
+        await trusted.ready;
+        const device = await mqtt.connectAsync(tlsBroker.url, {
+          ca: readFileSync(caFile),
+          protocolVersion: 4,
+        });
+        await device.publishAsync(
+          'meniscus/harbour-deck/probe-a/data',
+          JSON.stringify([{ n: 'rh-10', v: 95, t: -1 }]),
+          { qos: 1 },
+        );
+        await device.endAsync();
+        await waitUntil(() => archive.totals().readings === 1, 10_000, 'the reading over TLS');
+        await waitUntil(
+          () => untrusted.state().lastError !== null,
+          10_000,
+          'the certificate refusal',
+        );
+        expect(untrusted.state()).toMatchObject({ connected: false });
+        expect(untrusted.state().lastError).toMatch(/certificate/i);
+      } finally {
+        await untrusted.close();
+        await trusted.close();
+        archive.close();
+        await tlsBroker.dispose();
+      }
+    },
+  );
 });
