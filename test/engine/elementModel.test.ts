@@ -175,6 +175,16 @@ describe('element model robustness', () => {
     );
   });
 
+  it.each(['earthen-plaster', 'cement-mortar-fine', 'building-stone-coarse'])(
+    '%s dries to equilibrium with desert air (45 degC, 5 %% RH, 80 km/h) without failing',
+    (presetId) => {
+      const result = run(modelOf(presetId, 0.02), steadyWeather(45, 0.05, 22), 24);
+      finiteRun(result);
+      // At equilibrium the surface pore humidity equals the air humidity (Kelvin).
+      expect(result.series.at(-1)?.surfaceRelativeHumidity).toBeCloseTo(0.05, 2);
+    },
+  );
+
   it('runs 7 days of daily weather without blowing up', () => {
     const model = modelOf('normal-concrete', 0.2, 'two-face');
     const initialHeld = waterHeldM(model, { state: model.initialState() });

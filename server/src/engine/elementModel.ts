@@ -219,14 +219,20 @@ export function createElementModel(config: ElementModelConfig): ElementModel {
     type Mode = 'covered' | 'film' | 'exposed';
     let mode: Mode = 'exposed';
     let bleedRate = 0;
+    // The clamp of evaporation at zero (no condensation) has a kink exactly where the surface
+    // comes into equilibrium with the air, and Newton cycles across a kink. Inside the solver the
+    // rate continues linearly below zero down to -w, with w = 1e-4 of the wet-surface rate: the
+    // equilibrium is then a smooth zero crossing, and at most w of water per m2 and second can
+    // return to the surface (our assumption, a numerical regularisation of the clamp).
+    const condensationFloor = -1e-4 * Math.abs(evaporation.signedRateKgM2s(1));
     const outflow = {
       kind: 'outflow' as const,
-      volumeFluxMs: (surfacePressurePa: number): number =>
-        Math.max(
-          0,
-          evaporation.rateKgM2s(hydraulics.relativeHumidity(0, Math.min(0, surfacePressurePa))) -
-            bleedRate,
-        ) / liquidDensity,
+      volumeFluxMs: (surfacePressurePa: number): number => {
+        const humidity = hydraulics.relativeHumidity(0, Math.min(0, surfacePressurePa));
+        const net = evaporation.signedRateKgM2s(humidity) - bleedRate;
+        const rate = evaporation.allowCondensation ? net : Math.max(net, condensationFloor);
+        return rate / liquidDensity;
+      },
     };
     const saturatedSurface: SurfaceCondition = { kind: 'pressure', pressurePa: 0 };
     const surfaceAt = (endS: number): SurfaceCondition => {

@@ -113,7 +113,8 @@ export function createWorkspace(cellCount: number): StepWorkspace {
  * step controller then retries with a shorter step).
  *
  * Convergence needs both the pressure change below tolerance and the mass defect below
- * 1e-13 of the water held plus 1e-10 of the step's surface exchange, so that a whole run's
+ * 1e-13 of the water held plus 1e-10 of the step's surface exchange (plus a floor of 1e-16 m
+ * per m of depth), so that a whole run's
  * balance closes to about 1e-8 (physics.md section 3).
  */
 export function implicitStep(
@@ -166,7 +167,10 @@ export function implicitStep(
         storageWaterM += width * ((storage[i] as number) - (storageOld[i] as number));
       }
       const massDefectM = waterChangeM - surfaceInflowM;
-      const massTolerance = 1e-13 * waterHeldM + 1e-10 * Math.abs(surfaceInflowM);
+      // The floor (1e-16 m of water per m of depth) keeps an almost dry layer, which holds next
+      // to no water, from asking for a defect below rounding.
+      const massTolerance =
+        1e-13 * waterHeldM + 1e-10 * Math.abs(surfaceInflowM) + 1e-16 * grid.depthM;
       if (Math.abs(massDefectM) <= massTolerance) {
         pressureNewPa.set(iterate);
         return {

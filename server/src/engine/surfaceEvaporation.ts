@@ -31,6 +31,10 @@ export interface SurfaceEvaporation {
    * the estimate's falling-rate ratio), clamped at 0 unless condensation is allowed.
    */
   rateKgM2s(surfaceHumidity: number): number;
+  /** The same before the clamp at zero (negative: the air would give water to the surface). */
+  signedRateKgM2s(surfaceHumidity: number): number;
+  /** Whether negative rates (condensation) are allowed (option `allowCondensation`). */
+  allowCondensation: boolean;
 }
 
 /**
@@ -60,14 +64,23 @@ export function surfaceEvaporation(
   const dry = evaporationFluxKgM2s(weather, { surfacePoreHumidity: 0, allowCondensation: true });
   const measured = inputs.measuredEvaporationKgM2s;
   const multiplier = (options.exposureMultiplier ?? 1) * effective.fluxMultiplier;
-  const rateKgM2s = (surfaceHumidity: number): number => {
+  const signedRateKgM2s = (surfaceHumidity: number): number => {
     if (effective.heldSaturated) return 0;
     let rate: number;
     if (measured === undefined) rate = dry + surfaceHumidity * (wet - dry);
     else if (wet > 0) rate = (measured * (dry + surfaceHumidity * (wet - dry))) / wet;
     else rate = measured; // the estimate sees no drive: trust the measurement as it is
-    rate *= multiplier;
+    return rate * multiplier;
+  };
+  const rateKgM2s = (surfaceHumidity: number): number => {
+    const rate = signedRateKgM2s(surfaceHumidity);
     return allowCondensation ? rate : Math.max(0, rate);
   };
-  return { heldSaturated: effective.heldSaturated, potentialKgM2s: rateKgM2s(1), rateKgM2s };
+  return {
+    heldSaturated: effective.heldSaturated,
+    potentialKgM2s: rateKgM2s(1),
+    rateKgM2s,
+    signedRateKgM2s,
+    allowCondensation,
+  };
 }
