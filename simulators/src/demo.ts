@@ -40,6 +40,11 @@ export interface DemoRun {
   runId: string;
   /** Resolves when the scenario has played (or was stopped). */
   played: Promise<PlayResult>;
+  /**
+   * Event time the hidden truth's margin first closed (its utilization reached 1), ms; null so
+   * far. For judging the server's warning against what really happened.
+   */
+  truthMarginClosedAtMs(): number | null;
 }
 
 /** The host a browser on this machine uses for a bind address. */
@@ -128,6 +133,7 @@ export async function startDemo(options: DemoOptions): Promise<DemoRun> {
       }
     };
     let lastPrintMs = 0;
+    let truthClosedAtMs: number | null = null;
     const played = playScenario({
       scenario,
       site: runConfig.site,
@@ -138,16 +144,28 @@ export async function startDemo(options: DemoOptions): Promise<DemoRun> {
       ...(options.clock === undefined ? {} : { clock: options.clock }),
       ...(options.signal === undefined ? {} : { signal: options.signal }),
       onMeasureStart: logMeasure,
-      onProgress: (eventTimeMs) => {
+      onProgress: (eventTimeMs, truth) => {
+        const figures = truth.riskFigures();
+        if (truthClosedAtMs === null && figures !== null && figures.utilization >= 1) {
+          truthClosedAtMs = eventTimeMs;
+          print(
+            `  ${new Date(eventTimeMs).toISOString()}  (hidden truth: the margin has closed, U ${figures.utilization.toFixed(2)}, ${figures.phase} phase)`,
+          );
+        }
         if (eventTimeMs - lastPrintMs < 30 * 60_000) return;
         lastPrintMs = eventTimeMs;
         const counters = server.ingestor.counters;
+        const quarantined = Object.values(counters.quarantined).reduce((a, b) => a + b, 0);
+        const truthText =
+          figures === null
+            ? ''
+            : `; hidden truth U ${figures.utilization.toFixed(2)} (${figures.phase})`;
         print(
-          `  ${new Date(eventTimeMs).toISOString()}  readings stored ${counters.readingsStored}, quarantined ${Object.values(counters.quarantined).reduce((a, b) => a + b, 0)}`,
+          `  ${new Date(eventTimeMs).toISOString()}  readings stored ${counters.readingsStored}, quarantined ${quarantined}${truthText}`,
         );
       },
     });
-    return { server, baseUrl, runId, played };
+    return { server, baseUrl, runId, played, truthMarginClosedAtMs: () => truthClosedAtMs };
   } catch (error) {
     await server.close();
     throw error;

@@ -6,6 +6,7 @@
  */
 import { createElementModel } from '../../server/src/engine/elementModel.ts';
 import type { ElementModel } from '../../server/src/engine/elementModel.ts';
+import { evaluateElement } from '../../server/src/engine/elementFigures.ts';
 import type { ElementState } from '../../server/src/engine/elementState.ts';
 import { loadMaterialPreset } from '../../server/src/engine/materialPreset.ts';
 import type { CuringMeasure } from '../../server/src/physics/curingMeasures.ts';
@@ -32,6 +33,8 @@ export function createEngineTruth(
     material: loadMaterialPreset(truth.material),
     thicknessM: truth.thicknessMm / 1000,
     dryingCase: truth.drying,
+    stressMode: truth.restraint.mode,
+    restraintDegree: truth.restraint.degree,
     options: {
       cellCount: truth.cellCount,
       permeabilityMultiplier: truth.permeabilityMultiplier,
@@ -100,6 +103,15 @@ export function createEngineTruth(
     },
     surfaceSuctionPa() {
       return Math.max(0, -(state.transport.pressurePa[0] as number));
+    },
+    riskFigures() {
+      if (timeMs <= placedAtMs) return null;
+      const figures = evaluateElement(model, state);
+      return {
+        phase: figures.phase,
+        utilization: figures.utilization,
+        marginPa: figures.marginPa,
+      };
     },
   };
 }

@@ -23,6 +23,15 @@ export interface TruthWeather {
   rainMmH: number;
 }
 
+/** Risk figures of the truth at its current time. */
+export interface TruthRiskFigures {
+  phase: string;
+  /** Utilization U of the phase: >= 1 means the margin has closed. */
+  utilization: number;
+  /** fct - sigma_s, Pa (NaN in the plastic phase). */
+  marginPa: number;
+}
+
 /** What a probe sensor at a depth would read if it were perfect. */
 export interface HiddenTruth {
   /** Which implementation: `engine` or `stand-in`. */
@@ -46,4 +55,9 @@ export interface HiddenTruth {
    * stand-in, which has no pore water.
    */
   surfaceSuctionPa(): number;
+  /**
+   * The truth's own risk figures now (physics.md section 7), from the engine's evaluation:
+   * phase, utilization U and margin. Null for the stand-in.
+   */
+  riskFigures(): TruthRiskFigures | null;
 }

@@ -166,6 +166,15 @@ export const scenarioSchema = z
       drying: z.enum(['one-face', 'two-face'], { error: 'must be "one-face" or "two-face"' }),
       placedAt: isoTime,
       placementTemperatureC: between(1, 45, 'degC'),
+      /** Stress mode and external restraint degree of the truth (physics.md section 5). */
+      restraint: z
+        .strictObject({
+          mode: z.enum(['flat', 'curl', 'restrained'], {
+            error: 'must be one of flat, curl, restrained',
+          }),
+          degree: between(0, 1, '(fraction)').default(0),
+        })
+        .default({ mode: 'flat', degree: 0 }),
       /** Cells of the truth's grid: finer than the server's 60 (our assumption). */
       cellCount: z
         .number({ error: 'must be a whole number' })

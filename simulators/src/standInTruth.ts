@@ -85,5 +85,8 @@ export function createStandInTruth(
     surfaceSuctionPa() {
       return Number.NaN;
     },
+    riskFigures() {
+      return null;
+    },
   };
 }

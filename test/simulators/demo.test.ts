@@ -79,6 +79,13 @@ describe('the demo (server, run over HTTP, scenario on the engine truth)', () =>
     expect(devices).toEqual(new Set(['mast-l3', 'probe-c5', 'probe-c7']));
   });
 
+  it("notes when the hidden truth's margin closes without measures (after the dry wind rises at 12:45)", () => {
+    const closedAt = demo.truthMarginClosedAtMs();
+    expect(closedAt).not.toBeNull();
+    expect(closedAt as number).toBeGreaterThan(Date.parse('2026-07-16T12:45:00+02:00'));
+    expect(printed.some((line) => line.includes('hidden truth: the margin has closed'))).toBe(true);
+  });
+
   it.todo(
     'GET /api/runs/:id/state has risk figures and the no-action play raises a notice before the truth margin closes (waits on the engine state and notices API)',
   );

@@ -1,8 +1,9 @@
 /**
  * The engine as hidden truth under the demo scenario: the story the scenario tells holds in the
- * truth. Without measures the surface suction passes the fresh mix's critical suction soon after
- * the dry wind rises (the plastic-phase margin closes, physics.md section 7: U = -p_surface /
- * p_crit); with the crew's fogging and windbreak it does not before 15:00.
+ * truth, judged by the engine's own risk figures (evaluateElement, physics.md section 7).
+ * Without measures the utilization U reaches 1 (the margin closes) soon after the dry wind rises,
+ * while still in the plastic phase, where U = -p_surface / p_crit; with the crew's fogging and
+ * windbreak it stays well below 1 through the afternoon.
  */
 import { describe, expect, it } from 'vitest';
 import { curingMeasuresActiveAt } from '../../server/src/physics/curingMeasures.ts';
@@ -23,10 +24,11 @@ const at = (localTime: string) => Date.parse(`2026-07-16T${localTime}:00+02:00`)
 function playTruth(
   logName: string,
   untilMs: number,
-): { truth: HiddenTruth; suctionPa: Map<number, number> } {
+): { truth: HiddenTruth; suctionPa: Map<number, number>; utilization: Map<number, number> } {
   const truth = createEngineTruth(scenario.truth, probeDepthsMm(scenario));
   const measures = (scenario.measureLogs[logName] ?? []).map(toCuringMeasure);
   const suctionPa = new Map<number, number>();
+  const utilization = new Map<number, number>();
   for (let timeMs = Date.parse(scenario.truth.placedAt); timeMs < untilMs; timeMs += 60_000) {
     const weather = scriptedWeatherAt(scenario.weather, timeMs, utcOffsetMin(scenario.startAt));
     truth.advanceTo(
@@ -41,9 +43,12 @@ function playTruth(
       },
       curingMeasuresActiveAt(measures, timeMs),
     );
-    if ((timeMs + 60_000) % 300_000 === 0) suctionPa.set(timeMs + 60_000, truth.surfaceSuctionPa());
+    if ((timeMs + 60_000) % 300_000 === 0) {
+      suctionPa.set(timeMs + 60_000, truth.surfaceSuctionPa());
+      utilization.set(timeMs + 60_000, truth.riskFigures()?.utilization ?? Number.NaN);
+    }
   }
-  return { truth, suctionPa };
+  return { truth, suctionPa, utilization };
 }
 
 const firstCrossing = (series: Map<number, number>, limit: number) =>
@@ -54,18 +59,21 @@ describe('createEngineTruth() under the level3-topping scenario', () => {
     expect(criticalSuctionPa).toBeGreaterThan(0);
   });
 
-  it('without measures the plastic margin closes after the dry wind rises (12:45) and before 14:00', () => {
-    const { truth, suctionPa } = playTruth('no-action', at('14:00'));
-    const crossing = firstCrossing(suctionPa, criticalSuctionPa);
+  it('without measures the margin closes (U >= 1) after the dry wind rises (12:45) and before 14:00, in the plastic phase', () => {
+    const { truth, suctionPa, utilization } = playTruth('no-action', at('14:00'));
+    const closedAt = firstCrossing(utilization, 1);
     expect(truth.kind).toBe('engine');
-    expect(crossing).not.toBeNull();
-    expect(crossing as number).toBeGreaterThan(at('12:45'));
-    expect(crossing as number).toBeLessThan(at('14:00'));
+    expect(closedAt).not.toBeNull();
+    expect(closedAt as number).toBeGreaterThan(at('12:45'));
+    expect(closedAt as number).toBeLessThan(at('14:00'));
+    expect(truth.riskFigures()?.phase).toBe('plastic');
+    // plastic-phase U is the surface suction over the critical suction: both crossings agree
+    expect(firstCrossing(suctionPa, criticalSuctionPa)).toBe(closedAt);
   });
 
-  it("with the crew's fogging and windbreak the surface suction stays below it until 15:00", () => {
-    const { suctionPa } = playTruth('fogging', at('15:00'));
-    expect(firstCrossing(suctionPa, criticalSuctionPa)).toBeNull();
+  it("with the crew's fogging and windbreak U stays below 0.5 until 17:00", () => {
+    const { utilization } = playTruth('fogging', at('17:00'));
+    expect(Math.max(...utilization.values())).toBeLessThan(0.5);
   });
 
   it('probe depths stay near saturation while the surface dries (a drying front from the top)', () => {

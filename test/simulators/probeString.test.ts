@@ -21,6 +21,7 @@ const steadyTruth: HiddenTruth = {
   temperatureCAt: () => 25,
   evaporationKgM2h: () => 0,
   surfaceSuctionPa: () => Number.NaN,
+  riskFigures: () => null,
 };
 const base = loadScenarioFolder('level3-topping').scenario;
 function probeSpec(
