@@ -11,7 +11,10 @@ import {
 } from '../physics/hydration.ts';
 import { inPlaceStrength } from '../physics/strengthDevelopment.ts';
 import type { DryingStressMode } from '../physics/dryingStress.ts';
-import { kelvinToCelsius, SECONDS_PER_DAY } from '../physics/units.ts';
+import { kelvinToCelsius, SECONDS_PER_DAY as SECONDS_PER_DAY_EXPORT } from '../physics/units.ts';
+
+// Local copy: a module binding read in the per-cell loop costs an accessor call under tsx.
+const SECONDS_PER_DAY = SECONDS_PER_DAY_EXPORT;
 import {
   checkBoundaryInputs,
   fillCellTemperatures,
@@ -127,6 +130,11 @@ export function createElementModel(config: ElementModelConfig): ElementModel {
   const targetStorage = new Float64Array(n);
   const targetScale = new Float64Array(n);
   const maturityRate = new Float64Array(n);
+  const newTemperatureK = new Float64Array(n);
+  // Equivalent age of each cell when its storage and refinement targets were last computed, per
+  // state (ensemble members share the model): the targets move slowly, so they are recomputed
+  // only after the age has grown by `refinementUpdateThreshold` / 4 (a cost saving, our choice).
+  const checkedAgeS = new WeakMap<ElementState, Float64Array>();
 
   const specificStorage = (equivalentAgeS: number): number => {
     let modulusPa: number;
@@ -201,11 +209,18 @@ export function createElementModel(config: ElementModelConfig): ElementModel {
   const advanceTo = (state: ElementState, timeS: number, inputs: BoundaryInputs): void => {
     checkBoundaryInputs(inputs);
     applyState(state);
-    rememberWater(state);
-    fillCellTemperatures(inputs, grid.centresM, state.temperatureK);
-    hydraulics.temperatureK.set(state.temperatureK);
-    hydraulics.refreshTemperature();
-    remapPressures(state);
+    fillCellTemperatures(inputs, grid.centresM, newTemperatureK);
+    let temperatureChanged = false;
+    for (let i = 0; i < n; i += 1) {
+      if (newTemperatureK[i] !== state.temperatureK[i]) temperatureChanged = true;
+    }
+    if (temperatureChanged) {
+      rememberWater(state);
+      state.temperatureK.set(newTemperatureK);
+      hydraulics.temperatureK.set(newTemperatureK);
+      hydraulics.refreshTemperature();
+      remapPressures(state);
+    }
     for (let i = 0; i < n; i += 1) {
       maturityRate[i] = arrheniusAgeFactor(
         kelvinToCelsius(state.temperatureK[i] as number),
@@ -283,25 +298,35 @@ export function createElementModel(config: ElementModelConfig): ElementModel {
     const mix = material.mix;
     if (mix === undefined) return;
     const pressures = state.transport.pressurePa;
+    let checked = checkedAgeS.get(state);
+    if (checked === undefined) {
+      checked = new Float64Array(n).fill(-1);
+      checkedAgeS.set(state, checked);
+    }
+    const recheckFactor = 1 + threshold / 4;
     let update = false;
     for (let i = 0; i < n; i += 1) {
       const pressure = pressures[i] as number;
       const humidityFactor = humidityFactorOn
         ? hydrationHumidityFactor(hydraulics.relativeHumidity(i, Math.min(0, pressure)))
         : 1;
-      const rate = maturityRate[i] as number;
-      const age = (state.equivalentAgeS[i] as number) + stepS * rate * humidityFactor;
+      const age =
+        (state.equivalentAgeS[i] as number) + stepS * (maturityRate[i] as number) * humidityFactor;
       state.equivalentAgeS[i] = age;
+      targetStorage[i] = state.specificStoragePerPa[i] as number;
+      targetScale[i] = state.diameterScale[i] as number;
+      if (age < (checked[i] as number) * recheckFactor) continue;
+      checked[i] = age;
       const storage = specificStorage(age);
       const scale = refinementOn
         ? refinementDiameterScale(mix, schindlerFolliardDegreeOfHydration(age, mix.hydration))
         : 1;
-      targetStorage[i] = storage;
-      targetScale[i] = scale;
       if (
         Math.abs(storage / (state.specificStoragePerPa[i] as number) - 1) > threshold ||
         Math.abs(scale / (state.diameterScale[i] as number) - 1) > threshold
       ) {
+        targetStorage[i] = storage;
+        targetScale[i] = scale;
         update = true;
       }
     }
