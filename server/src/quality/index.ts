@@ -1,2 +1,3 @@
 export * from './detectSilence.ts';
 export * from './detectStuck.ts';
+export * from './sensorQuality.ts';
