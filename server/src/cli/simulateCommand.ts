@@ -3,30 +3,28 @@
  * constant weather or a weather file and an optional measure log, for planning a pour: where does
  * the surface stress go against the growing strength, and which protection keeps it below?
  */
-import { writeFile } from 'node:fs/promises';
 import { resolve } from 'node:path';
-import { z } from 'zod';
-import type { CuringMeasure } from '../physics/curingMeasures.ts';
 import type { CommandContext, CommandDefinition } from './commandDefinition.ts';
-import type { FlagReader, NumberRule } from './flags.ts';
-import { parseIsoTimeMs } from './isoTime.ts';
+import type { FlagReader } from './flags.ts';
 import { formatNumber } from './output.ts';
-import { csvNumber, describeCell, readCsvFile } from './readCsv.ts';
 import { readJsonFile } from './readJsonFile.ts';
 import { UsageError } from './usageError.ts';
 
 /** The engine and physics, imported when the command runs (keeps other commands' start-up short). */
 async function loadEngine() {
-  const [presets, material, model, simulation, figures, input, wind, units] = await Promise.all([
-    import('../engine/materialPreset.ts'),
-    import('../engine/elementMaterial.ts'),
-    import('../engine/elementModel.ts'),
-    import('../engine/simulateElement.ts'),
-    import('../engine/elementFigures.ts'),
-    import('../physics/poreSizeDistributionInput.ts'),
-    import('../physics/windProfile.ts'),
-    import('../physics/units.ts'),
-  ]);
+  const [presets, material, model, simulation, figures, input, wind, units, edge, plot] =
+    await Promise.all([
+      import('../engine/materialPreset.ts'),
+      import('../engine/elementMaterial.ts'),
+      import('../engine/elementModel.ts'),
+      import('../engine/simulateElement.ts'),
+      import('../engine/elementFigures.ts'),
+      import('../physics/poreSizeDistributionInput.ts'),
+      import('../physics/windProfile.ts'),
+      import('../physics/units.ts'),
+      import('./simulateInputs.ts'),
+      import('./simulatePlot.ts'),
+    ]);
   return {
     ...presets,
     ...material,
@@ -36,125 +34,14 @@ async function loadEngine() {
     ...input,
     ...wind,
     ...units,
+    ...edge,
+    ...plot,
   };
 }
 type Engine = Awaited<ReturnType<typeof loadEngine>>;
 type WeatherSample = import('../engine/simulateElement.ts').WeatherSample;
 
 /** Concrete below 0 degC is refused: freezing of pore water is not modelled (boundaryInputs.ts). */
-const CONCRETE_TEMPERATURE_RULE: NumberRule = { unit: 'degC', min: 0, max: 60 };
-const AIR_TEMPERATURE_RULE: NumberRule = { unit: 'degC', min: -20, max: 60 };
-const RH_RULE: NumberRule = { unit: 'percent', min: 0, max: 100 };
-const WIND_RULE: NumberRule = { unit: 'km/h', min: 0, max: 150 };
-
-const measureFileSchema = z.array(
-  z
-    .object({
-      kind: z.enum(['wet-covering', 'ponding', 'curing-compound', 'fogging', 'windbreak']),
-      startH: z.number().min(0),
-      endH: z.number().min(0).optional(),
-      efficiency: z.number().min(0).max(1).optional(),
-      relativeHumidityPercent: z.number().min(0).max(100).optional(),
-      windFactor: z.number().min(0).max(1).optional(),
-    })
-    .strict(),
-);
-
-function readMeasures(path: string, cwd: string): CuringMeasure[] {
-  const parsed = readJsonFile('--measures', path, cwd);
-  const result = measureFileSchema.safeParse(parsed);
-  if (!result.success) {
-    const issue = result.error.issues[0];
-    const where = issue === undefined ? '' : `[${issue.path.join('].')}`.replace(/\]\.$/, ']');
-    throw UsageError.fromMessage(
-      `--measures ${path}`,
-      `--measures ${path} ${where} ${issue?.message ?? 'is invalid'}`,
-    );
-  }
-  return result.data.map((entry) => {
-    const measure: CuringMeasure = { kind: entry.kind, startMs: entry.startH * 3.6e6 };
-    if (entry.endH !== undefined) measure.endMs = entry.endH * 3.6e6;
-    if (entry.efficiency !== undefined) measure.efficiency = entry.efficiency;
-    if (entry.relativeHumidityPercent !== undefined)
-      measure.relativeHumidity = entry.relativeHumidityPercent / 100;
-    if (entry.windFactor !== undefined) measure.windFactor = entry.windFactor;
-    return measure;
-  });
-}
-
-/** Wind at 0.5 m (m/s) from a reading in km/h at the given height. */
-function windAt05mMS(engine: Engine, windKmH: number, heightM: number | undefined): number {
-  const kmh = heightM === undefined ? windKmH : engine.windSpeedAtUnoHeight(windKmH, heightM);
-  return engine.kmhToMs(kmh);
-}
-
-/**
- * Weather file: CSV with `time` (ISO 8601, or hours since placement), `airTempC`, `rhPercent`,
- * `windKmH`, optional `concreteTempC` (default: the air temperature) and `evaporationKgM2h`
- * (measured, replaces the estimate). Placement is the first record.
- */
-function readWeather(
-  engine: Engine,
-  path: string,
-  windHeightM: number | undefined,
-  cwd: string,
-): WeatherSample[] {
-  const table = readCsvFile('--weather', path, ['time', 'airTempC', 'rhPercent', 'windKmH'], cwd);
-  let originMs = Number.NaN;
-  const samples: WeatherSample[] = [];
-  for (const record of table.records) {
-    const text = record.cells.time ?? '';
-    let timeS = Number(text);
-    if (text.trim() === '' || !Number.isFinite(timeS)) {
-      const ms = parseIsoTimeMs(text);
-      if (Number.isNaN(ms)) {
-        throw new UsageError(
-          describeCell(table, record, 'time'),
-          'must be an ISO 8601 time or hours since placement',
-          JSON.stringify(text),
-        );
-      }
-      if (Number.isNaN(originMs)) originMs = ms;
-      timeS = (ms - originMs) / 1000;
-    } else {
-      timeS *= 3600;
-    }
-    const previous = samples.at(-1);
-    if (previous !== undefined && timeS <= previous.timeS) {
-      throw new UsageError(
-        describeCell(table, record, 'time'),
-        'must increase from row to row',
-        JSON.stringify(text),
-      );
-    }
-    const airC = csvNumber(table, record, 'airTempC', AIR_TEMPERATURE_RULE);
-    const concreteC =
-      (record.cells.concreteTempC ?? '') === ''
-        ? airC
-        : csvNumber(table, record, 'concreteTempC', CONCRETE_TEMPERATURE_RULE);
-    if (concreteC < 0) {
-      throw new UsageError(
-        describeCell(table, record, 'airTempC'),
-        'is the concrete temperature when concreteTempC is absent, and must be at least 0 (degC; freezing is not modelled)',
-        String(airC),
-      );
-    }
-    const sample: WeatherSample = {
-      timeS,
-      airTemperatureK: engine.celsiusToKelvin(airC),
-      relativeHumidity: csvNumber(table, record, 'rhPercent', RH_RULE) / 100,
-      windMS: windAt05mMS(engine, csvNumber(table, record, 'windKmH', WIND_RULE), windHeightM),
-      surfaceTemperatureK: engine.celsiusToKelvin(concreteC),
-    };
-    if ((record.cells.evaporationKgM2h ?? '') !== '') {
-      sample.measuredEvaporationKgM2s =
-        csvNumber(table, record, 'evaporationKgM2h', { unit: 'kg/m2/h', min: 0, max: 10 }) / 3600;
-    }
-    samples.push(sample);
-  }
-  return samples;
-}
-
 function readMaterial(engine: Engine, flags: FlagReader, cwd: string) {
   const presetId = flags.optionalString('--material');
   const psdPath = flags.optionalString('--psd');
@@ -202,84 +89,6 @@ function readMaterial(engine: Engine, flags: FlagReader, cwd: string) {
   return own;
 }
 
-interface SeriesRow {
-  timeH: number;
-  surfaceStressMPa: number;
-  fctmMPa: number;
-}
-interface ProfileRow {
-  timeH: number;
-  depthMm: number[];
-  saturation: number[];
-}
-
-/**
- * Figure of a run with vega-lite 5 rendered by vega 5 to SVG (PNG through resvg): surface stress
- * and tensile strength over time above, saturation profiles at the requested hours below.
- */
-async function writePlot(
-  path: string,
-  series: readonly SeriesRow[],
-  profiles: readonly ProfileRow[],
-) {
-  const [vega, vegaLite] = await Promise.all([import('vega'), import('vega-lite')]);
-  const overTime = series.flatMap((row) => [
-    { timeH: row.timeH, valueMPa: row.surfaceStressMPa, quantity: 'surface stress' },
-    { timeH: row.timeH, valueMPa: row.fctmMPa, quantity: 'tensile strength' },
-  ]);
-  const depth = profiles.flatMap((profile) =>
-    profile.depthMm.map((depthMm, index) => ({
-      depthMm,
-      saturation: profile.saturation[index],
-      timeH: profile.timeH,
-    })),
-  );
-  const timePanel = {
-    title: 'Surface stress against tensile strength',
-    width: 520,
-    height: 220,
-    data: { values: overTime },
-    mark: 'line',
-    encoding: {
-      x: { field: 'timeH', type: 'quantitative', title: 'time since placement (h)' },
-      y: { field: 'valueMPa', type: 'quantitative', title: 'MPa' },
-      color: { field: 'quantity', type: 'nominal', title: null },
-      strokeDash: { field: 'quantity', type: 'nominal', title: null },
-    },
-  };
-  const depthPanel = {
-    title: 'Saturation profiles',
-    width: 520,
-    height: 220,
-    data: { values: depth },
-    mark: 'line',
-    encoding: {
-      x: { field: 'depthMm', type: 'quantitative', title: 'depth below the exposed surface (mm)' },
-      y: {
-        field: 'saturation',
-        type: 'quantitative',
-        title: 'saturation',
-        scale: { domain: [0, 1] },
-      },
-      color: { field: 'timeH', type: 'ordinal', title: 'time (h)' },
-    },
-  };
-  const spec = {
-    $schema: 'https://vega.github.io/schema/vega-lite/v5.json',
-    vconcat: depth.length > 0 ? [timePanel, depthPanel] : [timePanel],
-    resolve: { scale: { color: 'independent', strokeDash: 'independent' } },
-  };
-  const compiled = vegaLite.compile(spec as unknown as Parameters<typeof vegaLite.compile>[0]);
-  const view = new vega.View(vega.parse(compiled.spec), { renderer: 'none' });
-  const svg = await view.toSVG();
-  if (/\.svg$/i.test(path)) {
-    await writeFile(path, svg);
-  } else {
-    const { Resvg } = await import('@resvg/resvg-js');
-    await writeFile(path, new Resvg(svg, { background: 'white' }).render().asPng());
-  }
-}
-
 function listOfHours(text: string | undefined, hours: number): number[] {
   if (text === undefined) return [];
   return text.split(',').map((part) => {
@@ -308,10 +117,11 @@ async function run(flags: FlagReader, context: CommandContext) {
   const weatherPath = flags.optionalString('--weather');
   let weather: WeatherSample[];
   if (weatherPath !== undefined) {
-    weather = readWeather(engine, weatherPath, windHeightM, context.cwd);
+    weather = engine.readWeather(weatherPath, windHeightM, context.cwd);
   } else {
-    const airC = flags.number('--air-temp', AIR_TEMPERATURE_RULE);
-    const concreteC = flags.optionalNumber('--concrete-temp', CONCRETE_TEMPERATURE_RULE) ?? airC;
+    const airC = flags.number('--air-temp', engine.AIR_TEMPERATURE_RULE);
+    const concreteC =
+      flags.optionalNumber('--concrete-temp', engine.CONCRETE_TEMPERATURE_RULE) ?? airC;
     if (concreteC < 0)
       throw new UsageError(
         '--air-temp',
@@ -322,14 +132,14 @@ async function run(flags: FlagReader, context: CommandContext) {
       {
         timeS: 0,
         airTemperatureK: engine.celsiusToKelvin(airC),
-        relativeHumidity: flags.number('--rh', RH_RULE) / 100,
-        windMS: windAt05mMS(engine, flags.number('--wind', WIND_RULE), windHeightM),
+        relativeHumidity: flags.number('--rh', engine.RH_RULE) / 100,
+        windMS: engine.windAt05mMS(flags.number('--wind', engine.WIND_RULE), windHeightM),
         surfaceTemperatureK: engine.celsiusToKelvin(concreteC),
       },
     ];
   }
   const measuresPath = flags.optionalString('--measures');
-  const measures = measuresPath === undefined ? [] : readMeasures(measuresPath, context.cwd);
+  const measures = measuresPath === undefined ? [] : engine.readMeasures(measuresPath, context.cwd);
   const profileHours = listOfHours(flags.optionalString('--profiles-at'), hours);
   const plotPath = flags.optionalString('--plot');
   if (plotPath !== undefined && !/\.(png|svg)$/i.test(plotPath)) {
@@ -380,7 +190,7 @@ async function run(flags: FlagReader, context: CommandContext) {
   }));
   const notes: string[] = [];
   if (plotPath !== undefined) {
-    await writePlot(resolve(context.cwd, plotPath), series, profiles);
+    await engine.writePlot(resolve(context.cwd, plotPath), series, profiles);
     notes.push(`figure written to ${plotPath}`);
   }
   notes.push(
