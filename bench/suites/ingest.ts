@@ -8,7 +8,7 @@
  * Also memory and archive size per million readings, extrapolated from a smaller count.
  * Each message is a SenML pack with one reading, so messages/s = readings/s.
  */
-import { mkdtempSync, rmSync, statSync } from 'node:fs';
+import { existsSync, mkdtempSync, rmSync, statSync } from 'node:fs';
 import { createServer } from 'node:net';
 import type { AddressInfo } from 'node:net';
 import { tmpdir } from 'node:os';
@@ -20,8 +20,10 @@ import mqtt from 'mqtt';
 import { parseRunConfig } from '../../server/src/config/runConfig.ts';
 import { Ingestor } from '../../server/src/ingest/ingestor.ts';
 import { startEmbeddedBroker } from '../../server/src/mqtt/embeddedBroker.ts';
+import { startMqttSubscriber } from '../../server/src/mqtt/mqttSubscriber.ts';
 import { Archive } from '../../server/src/store/archive.ts';
 import { openDatabase } from '../../server/src/store/openDatabase.ts';
+import { MOSQUITTO_BINARY, startMosquitto } from '../../test/helpers/mosquitto.ts';
 import type { BenchFigure } from '../figure.ts';
 import { ratioFigure } from '../figure.ts';
 
@@ -79,6 +81,35 @@ async function pipelineRate(maxBatch: number): Promise<{ perS: number; perCommit
     archive.close();
     if (stored !== MESSAGES) throw new Error(`bench stored ${stored} of ${MESSAGES}`);
     return { perS: MESSAGES / seconds, perCommit: MESSAGES / ingestor.counters.commits };
+  });
+}
+
+/**
+ * The external-broker path: Mosquitto, the MQTT.js subscriber acknowledging after commit, over
+ * `connections` connections sharing the subscription. Publish to the last reading committed.
+ */
+async function mosquittoRate(connections: number): Promise<number> {
+  return withDir(async (dir) => {
+    const mosquitto = await startMosquitto();
+    const archive = Archive.open(join(dir, 'm.sqlite'));
+    archive.createRun(runConfig, Date.now(), 'run-1');
+    const ingestor = new Ingestor(archive);
+    const subscriber = startMqttSubscriber(ingestor, {
+      url: mosquitto.url,
+      clientId: `bench-${connections}`,
+      connections,
+    });
+    await subscriber.ready;
+    const count = MESSAGES / 2;
+    const start = performance.now();
+    await publishAll(mosquitto.url, count);
+    while (archive.totals().readings < count)
+      await new Promise((resolve) => setTimeout(resolve, 2));
+    const seconds = (performance.now() - start) / 1000;
+    await subscriber.close();
+    archive.close();
+    await mosquitto.dispose();
+    return count / seconds;
   });
 }
 
@@ -170,8 +201,25 @@ export default async function ingestSuite(): Promise<BenchFigure[]> {
   const raw = await rawSubscriberRate();
   const bare = await bareSqliteRate(grouped.perCommit);
   const slower = Math.min(raw, bare);
+  const figures: BenchFigure[] = [];
+  if (existsSync(MOSQUITTO_BINARY)) {
+    const one = await mosquittoRate(1);
+    const shared = await mosquittoRate(8);
+    figures.push(
+      ratioFigure({
+        name: 'ingest.mosquittoSharedConnectionsVsOne',
+        value: shared,
+        unit: 'readings/s',
+        baseline: one,
+        target: 'ratio >= 4 (stretch)',
+        met: shared / one >= 4,
+        detail: `${MESSAGES / 2} messages via Mosquitto, MQTT.js subscriber acknowledging after commit (synchronous=FULL): 8 connections on a shared subscription (group commit across connections) vs 1 connection (one commit per message)`,
+      }),
+    );
+  }
   const scale = 1_000_000 / MEMORY_READINGS;
   return [
+    ...figures,
     ratioFigure({
       name: 'ingest.pipelineVsSlowerBaseline',
       value: grouped.perS,

@@ -20,10 +20,12 @@ import { startMosquitto } from './mosquitto.ts';
 export type BrokerKind =
   | 'embedded aedes (commit in authorizePublish)'
   | 'Mosquitto + MQTT.js v5'
+  | 'Mosquitto + MQTT.js v5, 3 shared connections'
   | 'aedes + MQTT.js v3.1.1';
 export const BROKER_KINDS: BrokerKind[] = [
   'embedded aedes (commit in authorizePublish)',
   'Mosquitto + MQTT.js v5',
+  'Mosquitto + MQTT.js v5, 3 shared connections',
   'aedes + MQTT.js v3.1.1',
 ];
 
@@ -68,7 +70,8 @@ export async function startIngestRig(kind: BrokerKind): Promise<IngestRig> {
     connection = broker;
   } else {
     let brokerUrl: string;
-    if (kind === 'Mosquitto + MQTT.js v5') {
+    const viaMosquitto = kind !== 'aedes + MQTT.js v3.1.1';
+    if (viaMosquitto) {
       const mosquitto = await startMosquitto();
       cleanups.push(() => mosquitto.dispose());
       brokerUrl = mosquitto.url;
@@ -85,8 +88,9 @@ export async function startIngestRig(kind: BrokerKind): Promise<IngestRig> {
     const subscriber = startMqttSubscriber(sink, {
       url: brokerUrl,
       clientId: `meniscus-test-${process.pid}`,
-      protocolVersion: kind === 'Mosquitto + MQTT.js v5' ? 5 : 4,
+      protocolVersion: viaMosquitto ? 5 : 4,
       reconnectPeriodMs: 100,
+      connections: kind === 'Mosquitto + MQTT.js v5, 3 shared connections' ? 3 : 1,
     });
     await subscriber.ready;
     url = brokerUrl;
