@@ -62,6 +62,7 @@ export async function startServer(config: ServerConfig, logger?: Logger): Promis
     broker = startMqttSubscriber(ingestor, {
       url: config.mqtt.url,
       clientId: config.mqtt.clientId,
+      connections: config.mqtt.connections,
       ...(config.mqtt.username === undefined ? {} : { username: config.mqtt.username }),
       ...(config.mqtt.password === undefined ? {} : { password: config.mqtt.password }),
       ...config.mqtt.tls,

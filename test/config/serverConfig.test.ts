@@ -28,6 +28,7 @@ describe('serverConfigFromEnv()', () => {
       mode: 'external',
       url: 'mqtts://broker.site.test:8883',
       clientId: 'meniscus-ingest',
+      connections: 1,
       username: 'ingest',
       password: 'pw',
       tls: { caFile: '/etc/ca.pem' },

@@ -13,6 +13,7 @@
  * | MENISCUS_MQTT_USERNAME / _PASSWORD | unset | credentials for the external broker |
  * | MENISCUS_MQTT_CA / _CERT / _KEY | unset | PEM files for TLS to the external broker |
  * | MENISCUS_MQTT_CLIENT_ID | meniscus-ingest (our assumption) | fixed id of the persistent session |
+ * | MENISCUS_MQTT_CONNECTIONS | 1 | connections sharing the data subscription (group commit) |
  * | MENISCUS_SQLITE_SYNCHRONOUS | FULL (durable on power loss) | FULL or NORMAL |
  * | MENISCUS_INFLUX_URL / _TOKEN / _ORG / _BUCKET | unset: forwarding off | InfluxDB v2 write |
  * | MENISCUS_LOG_LEVEL | info | pino level |
@@ -47,6 +48,12 @@ const envSchema = z.object({
     .string()
     .regex(/^[A-Za-z0-9._-]{1,23}$/, { error: 'must be 1 to 23 letters, digits, ".", "_" or "-"' })
     .default('meniscus-ingest'),
+  MENISCUS_MQTT_CONNECTIONS: z.coerce
+    .number({ error: 'must be a number' })
+    .int({ error: 'must be a whole number' })
+    .min(1, { error: 'must be between 1 and 32' })
+    .max(32, { error: 'must be between 1 and 32' })
+    .default(1),
   MENISCUS_SQLITE_SYNCHRONOUS: z
     .enum(['FULL', 'NORMAL'], { error: 'must be FULL or NORMAL' })
     .default('FULL'),
@@ -83,6 +90,8 @@ export interface ServerConfig {
         mode: 'external';
         url: string;
         clientId: string;
+        /** Connections sharing the data subscription (1 = no shared subscription). */
+        connections: number;
         username?: string;
         password?: string;
         tls: MqttTlsFiles;
@@ -125,6 +134,7 @@ export function serverConfigFromEnv(env: Record<string, string | undefined>): Se
           mode: 'external',
           url: e.MENISCUS_MQTT_URL,
           clientId: e.MENISCUS_MQTT_CLIENT_ID,
+          connections: e.MENISCUS_MQTT_CONNECTIONS,
           ...(e.MENISCUS_MQTT_USERNAME === undefined ? {} : { username: e.MENISCUS_MQTT_USERNAME }),
           ...(e.MENISCUS_MQTT_PASSWORD === undefined ? {} : { password: e.MENISCUS_MQTT_PASSWORD }),
           tls,
