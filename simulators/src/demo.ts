@@ -13,6 +13,7 @@ import { checkSpeed } from './playClock.ts';
 import { playScenario } from './playScenario.ts';
 import type { PlayResult } from './playScenario.ts';
 import { DEMO_SCENARIO, loadScenarioFolder } from './scenarioFolder.ts';
+import { utcOffsetMin } from './scenarioSchema.ts';
 import type { ScenarioMeasure } from './scenarioSchema.ts';
 
 export interface DemoOptions {
@@ -45,6 +46,11 @@ export interface DemoRun {
    * far. For judging the server's warning against what really happened.
    */
   truthMarginClosedAtMs(): number | null;
+}
+
+/** `2026-07-16 13:30` in the scenario's local time (its UTC offset). */
+export function scenarioLocalTime(timeMs: number, offsetMin: number): string {
+  return new Date(timeMs + offsetMin * 60_000).toISOString().slice(0, 16).replace('T', ' ');
 }
 
 /** The host a browser on this machine uses for a bind address. */
@@ -132,6 +138,7 @@ export async function startDemo(options: DemoOptions): Promise<DemoRun> {
         );
       }
     };
+    const offsetMin = utcOffsetMin(scenario.startAt);
     let lastPrintMs = 0;
     let truthClosedAtMs: number | null = null;
     const played = playScenario({
@@ -149,7 +156,7 @@ export async function startDemo(options: DemoOptions): Promise<DemoRun> {
         if (truthClosedAtMs === null && figures !== null && figures.utilization >= 1) {
           truthClosedAtMs = eventTimeMs;
           print(
-            `  ${new Date(eventTimeMs).toISOString()}  (hidden truth: the margin has closed, U ${figures.utilization.toFixed(2)}, ${figures.phase} phase)`,
+            `  ${scenarioLocalTime(eventTimeMs, offsetMin)}  (hidden truth: the margin has closed, U ${figures.utilization.toFixed(2)}, ${figures.phase} phase)`,
           );
         }
         if (eventTimeMs - lastPrintMs < 30 * 60_000) return;
@@ -161,7 +168,7 @@ export async function startDemo(options: DemoOptions): Promise<DemoRun> {
             ? ''
             : `; hidden truth U ${figures.utilization.toFixed(2)} (${figures.phase})`;
         print(
-          `  ${new Date(eventTimeMs).toISOString()}  readings stored ${counters.readingsStored}, quarantined ${quarantined}${truthText}`,
+          `  ${scenarioLocalTime(eventTimeMs, offsetMin)}  readings stored ${counters.readingsStored}, quarantined ${quarantined}${truthText}`,
         );
       },
     });

@@ -76,10 +76,14 @@ export async function demoMain(argv: readonly string[], env: NodeJS.ProcessEnv):
     for (const signal of ['SIGINT', 'SIGTERM'] as const) process.once(signal, () => resolve());
   });
   void demo.played.then(
-    (result) =>
+    (result) => {
+      const counts = `${result.packsSent} packs sent (${result.packsDropped} lost on purpose, ${result.packsSilenced} held back by the scripted silence)`;
       console.log(
-        `Scenario ${controller.signal.aborted ? 'stopped' : 'played'}: ${result.packsSent} packs sent (${result.packsDropped} lost on purpose, ${result.packsSilenced} held back by the scripted silence). The server keeps running: ${demo.baseUrl}/ (Ctrl-C to stop).`,
-      ),
+        controller.signal.aborted
+          ? `Scenario stopped: ${counts}. Stopping the server.`
+          : `Scenario played: ${counts}. The server keeps running: ${demo.baseUrl}/ (Ctrl-C to stop).`,
+      );
+    },
     (error: unknown) => console.error(`The scenario stopped: ${(error as Error).message}`),
   );
   await stopped;
