@@ -1,7 +1,7 @@
 import { readFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { afterAll, describe, expect, it } from 'vitest';
-import { callCli, fixtureFolder, runCliJson } from './_runCli.ts';
+import { callCli, fixtureFolder, runCli, runCliJson } from './_runCli.ts';
 
 const folder = fixtureFolder();
 afterAll(() => folder.remove());
@@ -82,6 +82,45 @@ describe('meniscus simulate', () => {
     expect(run.code).toBe(0);
     expect(readFileSync(join(folder.path, 'run.svg'), 'utf8')).toMatch(/^<svg/);
   });
+
+  it('writes a PNG figure through resvg', async () => {
+    const run = await callCli([
+      ...BASE,
+      ...STEADY,
+      '--hours',
+      '1',
+      '--plot',
+      join(folder.path, 'run.png'),
+    ]);
+    expect(run.code).toBe(0);
+    expect(readFileSync(join(folder.path, 'run.png')).subarray(1, 4).toString('latin1')).toBe(
+      'PNG',
+    );
+  });
+
+  it('shows progress on stderr for a run over a second while stdout stays one JSON object', async () => {
+    const run = await runCli([
+      'simulate',
+      '--material',
+      'normal-concrete',
+      '--thickness-mm',
+      '200',
+      '--air-temp',
+      '25',
+      '--rh',
+      '50',
+      '--wind',
+      '10',
+      '--hours',
+      '1000',
+      '--cells',
+      '300',
+      '--json',
+    ]);
+    expect(run.code).toBe(0);
+    expect(run.stderr).toMatch(/simulate: \d+ %/);
+    expect(() => JSON.parse(run.stdout) as unknown).not.toThrow();
+  }, 60_000);
 
   it.each([
     [
