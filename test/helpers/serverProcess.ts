@@ -7,7 +7,7 @@ const ENTRY = fileURLToPath(new URL('../../server/bin/meniscus-server.js', impor
 
 export interface ServerProcess {
   readonly child: ChildProcess;
-  /** Sends `signal` and waits for the exit. */
+  /** Sends `signal` and waits for the exit (SIGKILL after 10 s if it does not exit). */
   kill(signal: NodeJS.Signals): Promise<void>;
 }
 
@@ -46,7 +46,10 @@ export async function startServerProcess(
     child,
     async kill(signal) {
       if (child.exitCode === null && child.signalCode === null) child.kill(signal);
+      // A clean stop that hangs must not hang the test run: SIGKILL after 10 s.
+      const fallback = setTimeout(() => child.kill('SIGKILL'), 10_000);
       await exited;
+      clearTimeout(fallback);
     },
   };
 }

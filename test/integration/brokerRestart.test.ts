@@ -58,7 +58,7 @@ it('loses nothing when the broker restarts mid-stream (twice)', { timeout: 90_00
     const acknowledged = [...device.acknowledged];
     await waitUntil(
       () => server.archive.counts('run-1').readings >= acknowledged.length,
-      20_000,
+      45_000,
       'every acknowledged reading stored',
     );
     const counts = new Map<number, number>();
