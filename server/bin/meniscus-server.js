@@ -14,7 +14,21 @@ try {
   console.error(error instanceof Error ? error.message : String(error));
   process.exit(2);
 }
-const server = await startServer(config);
+let server;
+try {
+  server = await startServer(config);
+} catch (error) {
+  // A port in use is the usual cause; say which one and how to change it.
+  const code = error && typeof error === 'object' ? error.code : undefined;
+  if (code === 'EADDRINUSE') {
+    console.error(
+      `${error.message}: another program uses that port. Set MENISCUS_HTTP_PORT or MENISCUS_MQTT_PORT (or MENISCUS_MQTT_URL for an external broker).`,
+    );
+  } else {
+    console.error(error);
+  }
+  process.exit(1);
+}
 let stopping = false;
 for (const signal of ['SIGINT', 'SIGTERM']) {
   process.on(signal, () => {
