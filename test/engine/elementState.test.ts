@@ -55,3 +55,48 @@ describe('element state', () => {
     expect(() => deserialiseElementState(snapshot, 60)).toThrow(message);
   });
 });
+
+describe('per-member parameters (physics.md section 8: the ensemble varies them)', () => {
+  const model = modelOf('cement-mortar-fine', 0.05);
+  const advance = (overrides: Parameters<typeof model.initialState>[1], measures = false) => {
+    const state = model.initialState(303.15, overrides);
+    const activeMeasures = measures
+      ? [{ kind: 'curing-compound' as const, startMs: 0, efficiency: 0.2 }]
+      : undefined;
+    model.advanceTo(state, 3 * HOUR_S, {
+      ...inputs,
+      ...(activeMeasures ? { activeMeasures } : {}),
+    });
+    return state;
+  };
+
+  it('members of one model differ by their own permeability multiplier', () => {
+    const tight = advance({ permeabilityMultiplier: 0.01 });
+    const open = advance({ permeabilityMultiplier: 100 });
+    // Lower permeability: the surface dries more against a wetter interior.
+    const surfaceGap = (state: typeof tight) =>
+      (state.transport.pressurePa[59] ?? 0) - (state.transport.pressurePa[0] ?? 0);
+    expect(surfaceGap(tight)).toBeGreaterThan(surfaceGap(open));
+  });
+
+  it('the exposure multiplier scales evaporation and a curing efficiency overrides the measure', () => {
+    expect(advance({ exposureMultiplier: 0 }).evaporatedKgM2).toBe(0);
+    const logged = advance({}, true).evaporatedKgM2;
+    const calibrated = advance({ curingEfficiency: 0.9 }, true).evaporatedKgM2;
+    expect(calibrated).toBeLessThan(0.5 * logged);
+  });
+
+  it('clones and snapshots carry the parameters', () => {
+    const state = model.initialState(293.15, { permeabilityMultiplier: 3, curingEfficiency: 0.5 });
+    expect(cloneElementState(state).parameters).toEqual(state.parameters);
+    const restored = deserialiseElementState(
+      JSON.parse(JSON.stringify(serialiseElementState(state))),
+      model.grid.cellCount,
+    );
+    expect(restored.parameters).toEqual({
+      permeabilityMultiplier: 3,
+      exposureMultiplier: 1,
+      curingEfficiency: 0.5,
+    });
+  });
+});

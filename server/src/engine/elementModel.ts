@@ -25,7 +25,7 @@ import {
   refinementDiameterScale,
   type ElementMaterial,
 } from './elementMaterial.ts';
-import type { ElementState } from './elementState.ts';
+import type { ElementParameters, ElementState } from './elementState.ts';
 import { buildDepthGrid, domainDepthM, type DepthGrid, type DryingCase } from './grid.ts';
 import { createWorkspace, type SurfaceCondition } from './implicitStep.ts';
 import type { MaterialPreset } from './materialPreset.ts';
@@ -45,7 +45,10 @@ export interface ElementModelOptions {
   poreRefinement?: boolean;
   /** Hydration slows where pores dry, default true (physics.md section 6). */
   hydrationHumidityFactor?: boolean;
-  /** Multiplier on permeability, default 1 (the calibration adjusts its log). */
+  /**
+   * Multiplier on permeability, default 1 (the calibration adjusts its log): the default of
+   * each new state's `parameters.permeabilityMultiplier`.
+   */
   permeabilityMultiplier?: number;
   /** Surface options: exposure multiplier, condensation, curing-measure defaults. */
   surface?: SurfaceEvaporationOptions;
@@ -80,6 +83,12 @@ export interface ElementModelConfig {
   options?: ElementModelOptions;
 }
 
+/** Per-member figures for {@link ElementModel.initialState}. */
+export interface InitialStateOverrides extends Partial<ElementParameters> {
+  /** Bleed film at placement, kg/m2. */
+  initialBleedFilmKgM2?: number;
+}
+
 /** A ready element model: shared by every state (ensemble member) of the element. */
 export interface ElementModel {
   readonly config: ElementModelConfig;
@@ -87,8 +96,11 @@ export interface ElementModel {
   readonly grid: DepthGrid;
   readonly hydraulics: PoreHydraulics;
   readonly liquidDensityKgPerM3: number;
-  /** A saturated element at placement (time 0) at a uniform temperature (K, default 293.15). */
-  initialState(temperatureK?: number): ElementState;
+  /**
+   * A saturated element at placement (time 0) at a uniform temperature (K, default 293.15), with
+   * the options' parameters unless `overrides` gives this member its own (ensembles).
+   */
+  initialState(temperatureK?: number, overrides?: InitialStateOverrides): ElementState;
   /**
    * Advances `state` in place to `timeS` (s since placement) with `inputs` held over the
    * interval. Throws BoundaryInputError for refused inputs (e.g. freezing) and
@@ -158,6 +170,7 @@ export function createElementModel(config: ElementModelConfig): ElementModel {
     hydraulics.temperatureK.set(state.temperatureK);
     hydraulics.diameterScale.set(state.diameterScale);
     hydraulics.specificStoragePerPa.set(state.specificStoragePerPa);
+    hydraulics.setPermeabilityMultiplier(state.parameters.permeabilityMultiplier);
     hydraulics.refreshTemperature();
   };
 
@@ -183,7 +196,10 @@ export function createElementModel(config: ElementModelConfig): ElementModel {
     }
   };
 
-  const initialState = (temperatureK = 293.15): ElementState => ({
+  const initialState = (
+    temperatureK = 293.15,
+    overrides: InitialStateOverrides = {},
+  ): ElementState => ({
     transport: {
       timeS: 0,
       pressurePa: new Float64Array(n),
@@ -198,12 +214,18 @@ export function createElementModel(config: ElementModelConfig): ElementModel {
     temperatureK: new Float64Array(n).fill(temperatureK),
     diameterScale: new Float64Array(n).fill(1),
     specificStoragePerPa: new Float64Array(n).fill(specificStorage(0)),
-    bleedFilmKgM2: options.initialBleedFilmKgM2 ?? 0,
+    bleedFilmKgM2: overrides.initialBleedFilmKgM2 ?? options.initialBleedFilmKgM2 ?? 0,
     bledKgM2: 0,
     evaporatedKgM2: 0,
     coveringUptakeKgM2: 0,
     lastEvaporationKgM2s: 0,
     lastPotentialEvaporationKgM2s: 0,
+    parameters: {
+      permeabilityMultiplier:
+        overrides.permeabilityMultiplier ?? options.permeabilityMultiplier ?? 1,
+      exposureMultiplier: overrides.exposureMultiplier ?? options.surface?.exposureMultiplier ?? 1,
+      curingEfficiency: overrides.curingEfficiency ?? null,
+    },
   });
 
   const advanceTo = (state: ElementState, timeS: number, inputs: BoundaryInputs): void => {
@@ -227,7 +249,21 @@ export function createElementModel(config: ElementModelConfig): ElementModel {
         options.maturity ?? {},
       );
     }
-    const evaporation = surfaceEvaporation(inputs, options.surface ?? {});
+    const { exposureMultiplier, curingEfficiency } = state.parameters;
+    const activeMeasures =
+      curingEfficiency === null || inputs.activeMeasures === undefined
+        ? inputs.activeMeasures
+        : inputs.activeMeasures.map((measure) =>
+            measure.kind === 'curing-compound'
+              ? { ...measure, efficiency: curingEfficiency }
+              : measure,
+          );
+    const surfaceInputs: BoundaryInputs = { ...inputs };
+    if (activeMeasures !== undefined) surfaceInputs.activeMeasures = activeMeasures;
+    const evaporation = surfaceEvaporation(surfaceInputs, {
+      ...options.surface,
+      exposureMultiplier,
+    });
     const mix = material.mix;
     const bleedRateAt = (t: number): number =>
       mix !== undefined && t <= mix.bleedingDurationS ? mix.bleedRateKgM2s : 0;

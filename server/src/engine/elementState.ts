@@ -8,6 +8,19 @@ import type { TransportState } from './stepController.ts';
 /** Version of the snapshot layout written by {@link serialiseElementState}. */
 export const ELEMENT_STATE_VERSION = 1;
 
+/**
+ * Uncertain parameters a state carries, so the members of an ensemble can differ in them while
+ * sharing one model (physics.md section 8).
+ */
+export interface ElementParameters {
+  /** Multiplier on permeability (the calibration adjusts its logarithm). */
+  permeabilityMultiplier: number;
+  /** Multiplier on the evaporation estimate (exposure). */
+  exposureMultiplier: number;
+  /** Efficiency of every active curing compound, 0..1; null: each measure's own (or the default). */
+  curingEfficiency: number | null;
+}
+
 /** Everything that evolves in time; the configuration lives in the model, not here. */
 export interface ElementState {
   /** Moisture transport: time (s since placement), pressures, ledger, step control. */
@@ -32,6 +45,8 @@ export interface ElementState {
   lastEvaporationKgM2s: number;
   /** Potential (wet-surface) evaporation rate over the last step, kg/(m2 s). */
   lastPotentialEvaporationKgM2s: number;
+  /** This state's uncertain parameters. */
+  parameters: ElementParameters;
 }
 
 /** JSON form of an {@link ElementState}. */
@@ -48,6 +63,7 @@ export interface ElementStateSnapshot {
   coveringUptakeKgM2: number;
   lastEvaporationKgM2s: number;
   lastPotentialEvaporationKgM2s: number;
+  parameters: ElementParameters;
 }
 
 /** Deep copy: new typed arrays, same numbers. */
@@ -59,6 +75,7 @@ export function cloneElementState(state: ElementState): ElementState {
     temperatureK: state.temperatureK.slice(),
     diameterScale: state.diameterScale.slice(),
     specificStoragePerPa: state.specificStoragePerPa.slice(),
+    parameters: { ...state.parameters },
   };
 }
 
@@ -72,6 +89,7 @@ export function serialiseElementState(state: ElementState): ElementStateSnapshot
     temperatureK: Array.from(state.temperatureK),
     diameterScale: Array.from(state.diameterScale),
     specificStoragePerPa: Array.from(state.specificStoragePerPa),
+    parameters: { ...state.parameters },
   };
 }
 
@@ -116,6 +134,7 @@ export function deserialiseElementState(
     coveringUptakeKgM2: snapshot.coveringUptakeKgM2,
     lastEvaporationKgM2s: snapshot.lastEvaporationKgM2s,
     lastPotentialEvaporationKgM2s: snapshot.lastPotentialEvaporationKgM2s,
+    parameters: { ...snapshot.parameters },
     transport: {
       ...snapshot.transport,
       pressurePa: Float64Array.from(snapshot.transport.pressurePa),

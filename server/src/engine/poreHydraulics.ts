@@ -75,6 +75,8 @@ export interface PoreHydraulics extends CellHydraulics {
   refreshTemperature(): void;
   /** Recomputes the refinement-dependent coefficients after only `diameterScale` changed. */
   refreshScale(): void;
+  /** Sets the multiplier on permeability (per ensemble member) and refreshes. */
+  setPermeabilityMultiplier(multiplier: number): void;
   /** Saturation of cell i at liquid pressure p, 0..1. */
   saturationAt(cell: number, pressurePa: number): number;
   /** Water content theta of cell i at liquid pressure p, m3/m3 (phi S + S_s max(p, p_ae)). */
@@ -144,7 +146,7 @@ export function createPoreHydraulics(options: PoreHydraulicsOptions): PoreHydrau
     lookupPermeability = k0 + weight * (k1 - k0);
     lookupPermeabilitySlope = (k1 - k0) * inverseStep;
   };
-  const multiplier = options.permeabilityMultiplier ?? 1;
+  let multiplier = options.permeabilityMultiplier ?? 1;
   const vapourOn = options.vapourDiffusion ?? true;
   const airDiffusivity = options.vapourDiffusivityM2s ?? 2.5e-5;
   const liquidDensity = options.liquidDensityKgPerM3 ?? 998.2;
@@ -232,6 +234,11 @@ export function createPoreHydraulics(options: PoreHydraulicsOptions): PoreHydrau
     pressureScale,
     refreshTemperature,
     refreshScale,
+    setPermeabilityMultiplier(value) {
+      if (value === multiplier) return;
+      multiplier = value;
+      refreshScale();
+    },
     saturationAt(cell, pressurePa) {
       const reference = pressurePa * (pressureScale[cell] as number);
       if (reference >= airEntryRef) return 1;
