@@ -133,6 +133,17 @@ describe('/api', () => {
         unit: 'Cel',
       }),
     ]);
+    const to = new Date(EXAMPLE_PLACED_AT_MS + 120_000).toISOString();
+    const early = (await (
+      await fetch(`${base}/runs/${id}/readings?sensor=rh-10&to=${to}&limit=5`)
+    ).json()) as {
+      readings: { value: number }[];
+    };
+    expect(early.readings.map((r) => r.value)).toEqual([99]); // `to` is exclusive
+    const tooMany = await fetch(`${base}/runs/${id}/readings?limit=0`);
+    expect(((await tooMany.json()) as { issues: string[] }).issues).toEqual([
+      'limit must be between 1 and 1000000: got "0"',
+    ]);
     const bad = await fetch(`${base}/runs/${id}/readings?from=yesterday`);
     expect(bad.status).toBe(400);
     expect(((await bad.json()) as { issues: string[] }).issues[0]).toMatch(

@@ -44,6 +44,15 @@ describe('Archive', () => {
     normal.close();
   });
 
+  it('runs each migration once and refuses a file written by a newer schema', () => {
+    const path = join(dir, 'versions.sqlite');
+    openDatabase(path).close();
+    const again = openDatabase(path); // no migration runs twice (CREATE TABLE would throw)
+    again.pragma(`user_version = ${MIGRATIONS.length + 1}`);
+    again.close();
+    expect(() => openDatabase(path)).toThrow(/newer than this server knows/);
+  });
+
   it('createRun() keeps the validated configuration, devices and sensors', () => {
     const config = parseRunConfig(exampleRunInput());
     const run = archive.createRun(config, 1000, 'run-1');
