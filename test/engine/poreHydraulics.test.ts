@@ -59,3 +59,20 @@ describe('createPoreHydraulics()', () => {
     expect(hydraulics.saturationAt(2, -2e6)).toBeCloseTo(hydraulics.saturationAt(0, -1e6), 9);
   });
 });
+
+describe('createPoreHydraulics() with a measured saturated permeability', () => {
+  it('rescales the bundle curve to it (physics.md section 3) and keeps the relative shape', () => {
+    const bundle = make();
+    const measured = createPoreHydraulics({
+      poreSizes,
+      porosity: 0.15,
+      tortuosity: 3,
+      cellCount: 3,
+      saturatedPermeabilityM2: 1e-19,
+    });
+    expect(measured.permeability.saturatedPermeabilityM2).toBe(1e-19);
+    const ratio = (h: typeof bundle) =>
+      h.permeability.permeabilityAtPressureM2(-5e6) / h.permeability.saturatedPermeabilityM2;
+    expect(ratio(measured)).toBeCloseTo(ratio(bundle), 12);
+  });
+});

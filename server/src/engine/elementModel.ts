@@ -50,6 +50,8 @@ export interface ElementModelOptions {
    * each new state's `parameters.permeabilityMultiplier`.
    */
   permeabilityMultiplier?: number;
+  /** Measured saturated permeability of the fresh material, m2: rescales k(S) (physics.md 3). */
+  saturatedPermeabilityM2?: number;
   /** Surface options: exposure multiplier, condensation, curing-measure defaults. */
   surface?: SurfaceEvaporationOptions;
   /** Maturity options (activation energy 40 kJ/mol, reference 20 degC by default). */
@@ -128,6 +130,9 @@ export function createElementModel(config: ElementModelConfig): ElementModel {
     porosity: material.porosity,
     tortuosity: material.tortuosity,
     permeabilityMultiplier: options.permeabilityMultiplier ?? 1,
+    ...(options.saturatedPermeabilityM2 === undefined
+      ? {}
+      : { saturatedPermeabilityM2: options.saturatedPermeabilityM2 }),
     vapourDiffusion: options.vapourDiffusion ?? true,
     liquidDensityKgPerM3: liquidDensity,
     cellCount: n,

@@ -39,6 +39,11 @@ export interface PoreHydraulicsOptions {
    * its logarithm; a measured saturated permeability sets it at the edge.
    */
   permeabilityMultiplier?: number;
+  /**
+   * Measured saturated permeability, m2: rescales the capillary-bundle curve k(S) to it
+   * (physics.md section 3); default none, the bundle's own k(1).
+   */
+  saturatedPermeabilityM2?: number;
   /** Vapour diffusion through drained pores, default true (physics.md section 3). */
   vapourDiffusion?: boolean;
   /**
@@ -112,6 +117,9 @@ export function createPoreHydraulics(options: PoreHydraulicsOptions): PoreHydrau
   const permeability = capillaryBundlePermeability(retention, {
     porosity: options.porosity,
     tortuosity: options.tortuosity,
+    ...(options.saturatedPermeabilityM2 === undefined
+      ? {}
+      : { saturatedPermeabilityM2: options.saturatedPermeabilityM2 }),
   });
   const equivalentPressure = equivalentPorePressureCurve(retention);
   const table = buildHydraulicTable(retention, permeability);
