@@ -83,6 +83,41 @@ describe('meniscus simulate', () => {
     expect(readFileSync(join(folder.path, 'run.svg'), 'utf8')).toMatch(/^<svg/);
   });
 
+  it('takes an own pore-size distribution with --psd and --porosity, and measured evaporation', async () => {
+    const psd = folder.write(
+      'psd.json',
+      JSON.stringify({
+        lognormal: [{ medianDiameterUm: 0.05, geometricSd: 2.5, volumeFraction: 1 }],
+      }),
+    );
+    const weather = folder.write(
+      'measured.csv',
+      'time,airTempC,rhPercent,windKmH,evaporationKgM2h\n0,25,50,10,0.2\n2,25,50,10,0.2\n',
+    );
+    const { json } = await runCliJson(
+      [
+        'simulate',
+        '--psd',
+        join(folder.path, psd),
+        '--porosity',
+        '0.12',
+        '--thickness-mm',
+        '40',
+        '--cells',
+        '30',
+        '--weather',
+        join(folder.path, weather),
+        '--hours',
+        '2',
+      ],
+      undefined,
+      callCli,
+    );
+    const series = json.series as { evaporationKgM2h: number }[];
+    // The measured 0.2 kg/m2/h replaces the estimate while the surface is wet.
+    expect(series[1]?.evaporationKgM2h).toBeCloseTo(0.2, 3);
+  });
+
   it('writes a PNG figure through resvg', async () => {
     const run = await callCli([
       ...BASE,
