@@ -257,6 +257,7 @@ async function run(flags: FlagReader, context: CommandContext) {
   };
 }
 
+/** The `simulate` command of the registry (commands.ts). */
 export const simulateCommand: CommandDefinition = {
   name: 'simulate',
   summary:

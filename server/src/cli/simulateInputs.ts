@@ -14,8 +14,11 @@ import { readJsonFile } from './readJsonFile.ts';
 import { UsageError } from './usageError.ts';
 
 export const CONCRETE_TEMPERATURE_RULE: NumberRule = { unit: 'degC', min: 0, max: 60 };
+/** Air temperatures accepted, degC (the air may be below freezing). */
 export const AIR_TEMPERATURE_RULE: NumberRule = { unit: 'degC', min: -20, max: 60 };
+/** Relative humidity of the air, percent. */
 export const RH_RULE: NumberRule = { unit: 'percent', min: 0, max: 100 };
+/** Wind speed as measured, km/h. */
 export const WIND_RULE: NumberRule = { unit: 'km/h', min: 0, max: 150 };
 
 const measureFileSchema = z.array(

@@ -4,11 +4,13 @@
  */
 import { writeFile } from 'node:fs/promises';
 
+/** One point of the series over time (MPa, h). */
 export interface SeriesRow {
   timeH: number;
   surfaceStressMPa: number;
   fctmMPa: number;
 }
+/** One depth profile (mm, saturation 0..1) at a time (h). */
 export interface ProfileRow {
   timeH: number;
   depthMm: number[];
