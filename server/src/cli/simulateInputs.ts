@@ -13,6 +13,7 @@ import { csvNumber, describeCell, readCsvFile } from './readCsv.ts';
 import { readJsonFile } from './readJsonFile.ts';
 import { UsageError } from './usageError.ts';
 
+/** Concrete below 0 degC is refused: freezing of pore water is not modelled (boundaryInputs.ts). */
 export const CONCRETE_TEMPERATURE_RULE: NumberRule = { unit: 'degC', min: 0, max: 60 };
 /** Air temperatures accepted, degC (the air may be below freezing). */
 export const AIR_TEMPERATURE_RULE: NumberRule = { unit: 'degC', min: -20, max: 60 };
