@@ -64,7 +64,11 @@ export async function startEmbeddedBroker(
   broker.subscribe(
     STATUS_TOPIC_FILTER,
     (packet, callback) => {
-      sink.status(packet.topic, packet.payload as Buffer);
+      try {
+        sink.status(packet.topic, packet.payload as Buffer);
+      } catch (error) {
+        lastError = error instanceof Error ? error.message : String(error);
+      }
       callback();
     },
     () => {},
