@@ -4,11 +4,12 @@
  * and exposure multipliers), advanced in event time under the scripted weather and the measure
  * log. No drying physics lives here: this file only feeds the engine and reads its profile.
  */
-import { createElementModel } from '../../server/src/engine/elementModel.ts';
-import type { ElementModel } from '../../server/src/engine/elementModel.ts';
-import { evaluateElement } from '../../server/src/engine/elementFigures.ts';
-import type { ElementState } from '../../server/src/engine/elementState.ts';
-import { loadMaterialPreset } from '../../server/src/engine/materialPreset.ts';
+import {
+  createElementModel,
+  evaluateElement,
+  loadMaterialPreset,
+} from '../../server/src/engine/index.ts';
+import type { ElementModel, ElementState } from '../../server/src/engine/index.ts';
 import type { CuringMeasure } from '../../server/src/physics/curingMeasures.ts';
 import { windSpeedAtUnoHeight } from '../../server/src/physics/windProfile.ts';
 import type { HiddenTruth, TruthWeather } from './hiddenTruth.ts';

@@ -7,7 +7,7 @@
  */
 import { describe, expect, it } from 'vitest';
 import { curingMeasuresActiveAt } from '../../server/src/physics/curingMeasures.ts';
-import { loadMaterialPreset } from '../../server/src/engine/materialPreset.ts';
+import { loadMaterialPreset } from '../../server/src/engine/index.ts';
 import { createEngineTruth } from '../../simulators/src/engineTruth.ts';
 import type { HiddenTruth } from '../../simulators/src/hiddenTruth.ts';
 import { probeDepthsMm, toCuringMeasure } from '../../simulators/src/playScenario.ts';
