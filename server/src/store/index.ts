@@ -2,3 +2,4 @@ export * from './archive.ts';
 export * from './archiveQueries.ts';
 export * from './openDatabase.ts';
 export type * from './types.ts';
+export * from './influxForwarder.ts';

@@ -1,0 +1,11 @@
+export * from './classifyMessage.ts';
+export * from './ingestor.ts';
+export * from './matchReadings.ts';
+export * from './parsePayload.ts';
+export * from './parseSenml.ts';
+export * from './parseSimpleJson.ts';
+export type * from './payloadReading.ts';
+export * from './quantities.ts';
+export * from './reasons.ts';
+export * from './topics.ts';
+export * from './units.ts';

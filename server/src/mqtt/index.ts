@@ -1,0 +1,3 @@
+export type * from './brokerConnection.ts';
+export * from './embeddedBroker.ts';
+export * from './mqttSubscriber.ts';
