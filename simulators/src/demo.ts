@@ -5,7 +5,7 @@
  * API as they start, and prints the dashboard URL. The server keeps serving after the play
  * until Ctrl-C.
  */
-import type { ServerConfig } from '../../server/src/config/serverConfig.ts';
+import type { ServerConfig } from '../../server/src/config/index.ts';
 import { startServer } from '../../server/src/server.ts';
 import type { RunningServer } from '../../server/src/server.ts';
 import type { PlayClock } from './playClock.ts';

@@ -3,7 +3,7 @@
  * `--duration-h`. Bad flags: exit code 2 and a one-line message on stderr.
  */
 import { Command, CommanderError, InvalidArgumentError } from 'commander';
-import { serverConfigFromEnv } from '../../server/src/config/serverConfig.ts';
+import { serverConfigFromEnv } from '../../server/src/config/index.ts';
 import { checkSpeed } from './playClock.ts';
 import { startDemo } from './demo.ts';
 

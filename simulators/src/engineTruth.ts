@@ -10,8 +10,8 @@ import {
   loadMaterialPreset,
 } from '../../server/src/engine/index.ts';
 import type { ElementModel, ElementState } from '../../server/src/engine/index.ts';
-import type { CuringMeasure } from '../../server/src/physics/curingMeasures.ts';
-import { windSpeedAtUnoHeight } from '../../server/src/physics/windProfile.ts';
+import type { CuringMeasure } from '../../server/src/physics/index.ts';
+import { windSpeedAtUnoHeight } from '../../server/src/physics/index.ts';
 import type { HiddenTruth, TruthWeather } from './hiddenTruth.ts';
 import type { Scenario } from './scenarioSchema.ts';
 import { ThermalField, interpolate } from './thermalField.ts';

@@ -10,7 +10,7 @@
  * - standInTruth.ts: a documented simple stand-in, NOT a drying model, so the simulators'
  *   plumbing can be tested on its own. Never used by the demo.
  */
-import type { CuringMeasure } from '../../server/src/physics/curingMeasures.ts';
+import type { CuringMeasure } from '../../server/src/physics/index.ts';
 
 /** Weather the truth is exposed to over one step (mean values, before sensor noise). */
 export interface TruthWeather {

@@ -3,10 +3,7 @@
  * chosen measure log, and has each device publish its packs at its interval over its own MQTT
  * connection, paced so event time runs `speed` times faster than the wall clock.
  */
-import {
-  curingMeasuresActiveAt,
-  type CuringMeasure,
-} from '../../server/src/physics/curingMeasures.ts';
+import { curingMeasuresActiveAt, type CuringMeasure } from '../../server/src/physics/index.ts';
 import { createEngineTruth } from './engineTruth.ts';
 import type { HiddenTruth, TruthWeather } from './hiddenTruth.ts';
 import { connectDevice } from './mqttDevice.ts';

@@ -7,9 +7,9 @@
 import { readFileSync } from 'node:fs';
 import { dirname, isAbsolute, join, resolve } from 'node:path';
 import { fileURLToPath } from 'node:url';
-import { ValidationError } from '../../server/src/config/formatIssues.ts';
-import { parseRunConfig } from '../../server/src/config/runConfig.ts';
-import type { RunConfig } from '../../server/src/config/runConfig.ts';
+import { ValidationError } from '../../server/src/config/index.ts';
+import { parseRunConfig } from '../../server/src/config/index.ts';
+import type { RunConfig } from '../../server/src/config/index.ts';
 import { parseScenario } from './scenarioSchema.ts';
 import type { Scenario } from './scenarioSchema.ts';
 

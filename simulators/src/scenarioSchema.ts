@@ -6,7 +6,7 @@
  * rule and the value received.
  */
 import { z } from 'zod';
-import { ValidationError, formatIssues } from '../../server/src/config/formatIssues.ts';
+import { ValidationError, formatIssues } from '../../server/src/config/index.ts';
 
 const TOPIC_LEVEL = /^[A-Za-z0-9._-]{1,64}$/;
 const SENSOR_NAME = /^[A-Za-z0-9][A-Za-z0-9:./_-]{0,63}$/;

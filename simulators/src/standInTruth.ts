@@ -11,12 +11,9 @@
  * most 60. E is Uno's (1998) estimate from the physics library. Temperatures follow the
  * scripted thermal field.
  */
-import {
-  curingBoundaryInputs,
-  type CuringMeasure,
-} from '../../server/src/physics/curingMeasures.ts';
-import { evaporationFluxKgM2s } from '../../server/src/physics/evaporation.ts';
-import { windSpeedAtUnoHeight } from '../../server/src/physics/windProfile.ts';
+import { curingBoundaryInputs, type CuringMeasure } from '../../server/src/physics/index.ts';
+import { evaporationFluxKgM2s } from '../../server/src/physics/index.ts';
+import { windSpeedAtUnoHeight } from '../../server/src/physics/index.ts';
 import type { HiddenTruth, TruthWeather } from './hiddenTruth.ts';
 import type { Scenario } from './scenarioSchema.ts';
 import { ThermalField } from './thermalField.ts';
