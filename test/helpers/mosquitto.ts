@@ -10,6 +10,7 @@ import { chmodSync, mkdtempSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { freePort, waitForPort } from './freePort.ts';
+import { killOnExit } from './killOnExit.ts';
 import { makeTestCertificates } from './testCertificates.ts';
 import type { TestCertificates } from './testCertificates.ts';
 
@@ -74,6 +75,7 @@ export async function startMosquitto(
   let child: ChildProcess | null = null;
   const start = async () => {
     child = spawn(MOSQUITTO_BINARY, ['-c', configFile], { stdio: ['ignore', 'ignore', 'inherit'] });
+    killOnExit(child);
     await waitForPort(port);
   };
   const stop = async () => {

@@ -2,6 +2,7 @@
 import { spawn } from 'node:child_process';
 import type { ChildProcess } from 'node:child_process';
 import { fileURLToPath } from 'node:url';
+import { killOnExit } from './killOnExit.ts';
 
 const ENTRY = fileURLToPath(new URL('../../server/bin/meniscus-server.js', import.meta.url));
 
@@ -25,6 +26,7 @@ export async function startServerProcess(
     },
     stdio: ['ignore', 'ignore', 'inherit'],
   });
+  killOnExit(child);
   const exited = new Promise<void>((resolve) => child.once('exit', () => resolve()));
   const deadline = Date.now() + 20_000;
   for (;;) {

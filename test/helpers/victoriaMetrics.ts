@@ -10,6 +10,7 @@ import { mkdtempSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { freePort, waitForPort } from './freePort.ts';
+import { killOnExit } from './killOnExit.ts';
 
 export const VICTORIA_METRICS_BINARY = '/usr/bin/victoria-metrics';
 
@@ -44,6 +45,7 @@ export async function startVictoriaMetrics(): Promise<VictoriaMetrics> {
       ],
       { stdio: 'ignore' },
     );
+    killOnExit(child);
     await waitForPort(port, 20_000);
   };
   const stop = async () => {
