@@ -31,6 +31,7 @@ import { createWorkspace, type SurfaceCondition } from './implicitStep.ts';
 import type { MaterialPreset } from './materialPreset.ts';
 import { createPoreHydraulics, type PoreHydraulics } from './poreHydraulics.ts';
 import { advanceTransport, type StepControlOptions } from './stepController.ts';
+import { createAgeTable } from './_ageTable.ts';
 import { surfaceEvaporation, type SurfaceEvaporationOptions } from './surfaceEvaporation.ts';
 
 /** Options of the element model. Every default states its origin. */
@@ -143,15 +144,16 @@ export function createElementModel(config: ElementModelConfig): ElementModel {
   const humidityFactorOn = options.hydrationHumidityFactor ?? true;
   const threshold = options.refinementUpdateThreshold ?? 1e-3;
   const waterBulkModulus = options.waterBulkModulusPa ?? 2.2e9;
+  const maturityOptions = options.maturity ?? {};
   const waterBefore = new Float64Array(n);
   const targetStorage = new Float64Array(n);
   const targetScale = new Float64Array(n);
   const maturityRate = new Float64Array(n);
+  // Temperature for which maturityRate[i] was computed: cells share a handful of temperatures
+  // and the Arrhenius factor only changes with them.
+  const maturityRateForK = new Float64Array(n).fill(Number.NaN);
   const newTemperatureK = new Float64Array(n);
-  // Equivalent age of each cell when its storage and refinement targets were last computed, per
-  // state (ensemble members share the model): the targets move slowly, so they are recomputed
-  // only after the age has grown by `refinementUpdateThreshold` / 4 (a cost saving, our choice).
-  const checkedAgeS = new WeakMap<ElementState, Float64Array>();
+  const remapCell = new Uint8Array(n);
 
   const specificStorage = (equivalentAgeS: number): number => {
     let modulusPa: number;
@@ -170,6 +172,19 @@ export function createElementModel(config: ElementModelConfig): ElementModel {
     const drainedBulkPa = Math.max(floorPa, modulusPa / (3 * (1 - 2 * material.poissonRatio)));
     return material.porosity / waterBulkModulus + material.biotCoefficient ** 2 / drainedBulkPa;
   };
+  // Storage and refinement targets depend on a cell's equivalent age alone: tabulated in
+  // ln(age) (see _ageTable.ts) so that every cell can be checked after every step cheaply.
+  const storageAtAge = createAgeTable(specificStorage);
+  const mixForScale = material.mix;
+  const scaleAtAge =
+    refinementOn && mixForScale !== undefined
+      ? createAgeTable((ageS) =>
+          refinementDiameterScale(
+            mixForScale,
+            schindlerFolliardDegreeOfHydration(ageS, mixForScale.hydration),
+          ),
+        )
+      : (): number => 1;
 
   const applyState = (state: ElementState): void => {
     hydraulics.temperatureK.set(state.temperatureK);
@@ -190,9 +205,10 @@ export function createElementModel(config: ElementModelConfig): ElementModel {
    * their pressures so each cell holds the same water as before: mass is conserved exactly (to
    * rounding) through the change.
    */
-  const remapPressures = (state: ElementState): void => {
+  const remapPressures = (state: ElementState, onlyMarked = false): void => {
     const pressures = state.transport.pressurePa;
     for (let i = 0; i < n; i += 1) {
+      if (onlyMarked && remapCell[i] === 0) continue;
       pressures[i] = hydraulics.pressureForWaterContent(
         i,
         waterBefore[i] as number,
@@ -249,10 +265,10 @@ export function createElementModel(config: ElementModelConfig): ElementModel {
       remapPressures(state);
     }
     for (let i = 0; i < n; i += 1) {
-      maturityRate[i] = arrheniusAgeFactor(
-        kelvinToCelsius(state.temperatureK[i] as number),
-        options.maturity ?? {},
-      );
+      const temperature = state.temperatureK[i] as number;
+      if (temperature === maturityRateForK[i]) continue;
+      maturityRateForK[i] = temperature;
+      maturityRate[i] = arrheniusAgeFactor(kelvinToCelsius(temperature), maturityOptions);
     }
     const { exposureMultiplier, curingEfficiency } = state.parameters;
     const activeMeasures =
@@ -335,50 +351,54 @@ export function createElementModel(config: ElementModelConfig): ElementModel {
     );
   };
 
+  /**
+   * After an accepted step: equivalent age per cell, then the storage and refinement targets of
+   * its age; cells whose target moved by more than the update threshold take it, and their
+   * pressures move so they keep their water (the water content comes from the step's last
+   * evaluation, which the workspace holds).
+   */
   const advanceMaturity = (state: ElementState, stepS: number): void => {
     const mix = material.mix;
     if (mix === undefined) return;
     const pressures = state.transport.pressurePa;
-    let checked = checkedAgeS.get(state);
-    if (checked === undefined) {
-      checked = new Float64Array(n).fill(-1);
-      checkedAgeS.set(state, checked);
-    }
-    const recheckFactor = 1 + threshold / 4;
+    const ages = state.equivalentAgeS;
+    const storages = state.specificStoragePerPa;
+    const scales = state.diameterScale;
     let update = false;
     for (let i = 0; i < n; i += 1) {
       const pressure = pressures[i] as number;
-      const humidityFactor = humidityFactorOn
-        ? hydrationHumidityFactor(hydraulics.relativeHumidity(i, Math.min(0, pressure)))
-        : 1;
-      const age =
-        (state.equivalentAgeS[i] as number) + stepS * (maturityRate[i] as number) * humidityFactor;
-      state.equivalentAgeS[i] = age;
-      targetStorage[i] = state.specificStoragePerPa[i] as number;
-      targetScale[i] = state.diameterScale[i] as number;
-      if (age < (checked[i] as number) * recheckFactor) continue;
-      checked[i] = age;
-      const storage = specificStorage(age);
-      const scale = refinementOn
-        ? refinementDiameterScale(mix, schindlerFolliardDegreeOfHydration(age, mix.hydration))
-        : 1;
+      const humidityFactor =
+        humidityFactorOn && pressure < 0
+          ? hydrationHumidityFactor(hydraulics.relativeHumidity(i, pressure))
+          : 1;
+      const age = (ages[i] as number) + stepS * (maturityRate[i] as number) * humidityFactor;
+      ages[i] = age;
+      const storage = storageAtAge(age);
+      const scale = scaleAtAge(age);
+      const storageNow = storages[i] as number;
+      const scaleNow = scales[i] as number;
       if (
-        Math.abs(storage / (state.specificStoragePerPa[i] as number) - 1) > threshold ||
-        Math.abs(scale / (state.diameterScale[i] as number) - 1) > threshold
+        Math.abs(storage / storageNow - 1) > threshold ||
+        Math.abs(scale / scaleNow - 1) > threshold
       ) {
         targetStorage[i] = storage;
         targetScale[i] = scale;
+        remapCell[i] = 1;
         update = true;
+      } else {
+        targetStorage[i] = storageNow;
+        targetScale[i] = scaleNow;
+        remapCell[i] = 0;
       }
     }
     if (!update) return;
-    rememberWater(state);
-    state.diameterScale.set(targetScale);
-    state.specificStoragePerPa.set(targetStorage);
+    waterBefore.set(workspace.water);
+    storages.set(targetStorage);
+    scales.set(targetScale);
     hydraulics.diameterScale.set(targetScale);
     hydraulics.specificStoragePerPa.set(targetStorage);
     hydraulics.refreshScale();
-    remapPressures(state);
+    remapPressures(state, true);
   };
 
   return {

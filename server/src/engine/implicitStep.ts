@@ -59,7 +59,11 @@ export interface StepResult {
   massDefectM: number;
 }
 
-/** Preallocated arrays for {@link implicitStep}; build once per grid with {@link createWorkspace}. */
+/**
+ * Preallocated arrays for {@link implicitStep}; build once per grid with {@link createWorkspace}.
+ * After a converged step, `water` holds the water content theta (m3/m3) of every cell at the new
+ * pressures, evaluated with the hydraulics of the step (the element model reuses it).
+ */
 export interface StepWorkspace {
   waterOld: Float64Array;
   water: Float64Array;
@@ -140,7 +144,18 @@ export function implicitStep(
   const { waterOld, water, storageOld, storage, capacity, conductivity, iterate } = workspace;
   const { lower, diagonal, upper, rightHandSide, increment, scratch } = workspace;
 
-  hydraulics.evaluate(pressureOldPa, waterOld, capacity, conductivity, storageOld);
+  // The first iterate is the old pressure, so one evaluation serves both the old water content
+  // and the first iteration's coefficients.
+  let analyticSlope =
+    hydraulics.evaluate(
+      pressureOldPa,
+      waterOld,
+      capacity,
+      conductivity,
+      storageOld,
+      newton ? conductivitySlope : undefined,
+    ) === true;
+  water.set(waterOld);
   let waterHeldM = 0;
   for (let i = 0; i < n; i += 1)
     waterHeldM += (widths[i] as number) * Math.abs(waterOld[i] as number);
@@ -149,15 +164,17 @@ export function implicitStep(
   let surfaceInflowM = 0;
   let pendingCheck = false;
   for (let iteration = 1; iteration <= maxIterations + 1; iteration += 1) {
-    const analyticSlope =
-      hydraulics.evaluate(
-        iterate,
-        water,
-        capacity,
-        conductivity,
-        pendingCheck ? storage : undefined,
-        newton ? conductivitySlope : undefined,
-      ) === true;
+    if (iteration > 1) {
+      analyticSlope =
+        hydraulics.evaluate(
+          iterate,
+          water,
+          capacity,
+          conductivity,
+          pendingCheck ? storage : undefined,
+          newton ? conductivitySlope : undefined,
+        ) === true;
+    }
     if (pendingCheck) {
       let waterChangeM = 0;
       let storageWaterM = 0;

@@ -87,8 +87,10 @@ export interface PoreHydraulics extends CellHydraulics {
   /** Water content theta of cell i at liquid pressure p, m3/m3 (phi S + S_s max(p, p_ae)). */
   waterContentAt(cell: number, pressurePa: number): number;
   /**
-   * Liquid pressure (Pa) at which cell i holds water content theta (Newton on the forward curve
-   * from `guessPa`, exact to rounding); theta above the saturated range gives p > 0.
+   * Liquid pressure (Pa) at which cell i holds water content theta: the exact inverse of the
+   * tabulated forward curve (to rounding); theta above the saturated range gives p > 0. Where the
+   * curve is flat (no specific storage while saturated, or beyond the driest tabulated node) any
+   * pressure on the flat part holds theta and `guessPa` is kept when it lies there.
    */
   pressureForWaterContent(cell: number, waterContent: number, guessPa: number): number;
   /** Equivalent pore pressure pi of cell i at liquid pressure p, Pa (Coussy 2004). */
@@ -126,6 +128,7 @@ export function createPoreHydraulics(options: PoreHydraulicsOptions): PoreHydrau
   const tableSaturation = table.saturation;
   const tablePermeability = table.permeabilityM2;
   const lastNode = table.nodeCount - 1;
+  const porosity = options.porosity;
   const logStart = table.logSuctionStart;
   const inverseStep = table.inverseStep;
   // Scratch of the interpolation (module-free, no allocation per call).
@@ -228,9 +231,9 @@ export function createPoreHydraulics(options: PoreHydraulicsOptions): PoreHydrau
     const scale = pressureScale[cell] as number;
     const reference = pressurePa * scale;
     const storageCoefficient = specificStoragePerPa[cell] as number;
-    if (reference >= airEntryRef) return options.porosity + storageCoefficient * pressurePa;
+    if (reference >= airEntryRef) return porosity + storageCoefficient * pressurePa;
     lookup(reference);
-    return options.porosity * lookupSaturation + (storageCoefficient * airEntryRef) / scale;
+    return porosity * lookupSaturation + (storageCoefficient * airEntryRef) / scale;
   };
 
   return {
@@ -257,26 +260,33 @@ export function createPoreHydraulics(options: PoreHydraulicsOptions): PoreHydrau
       return waterContent(cell, pressurePa);
     },
     pressureForWaterContent(cell, target, guessPa) {
-      let pressure = guessPa;
-      for (let iteration = 0; iteration < 50; iteration += 1) {
-        const scale = pressureScale[cell] as number;
-        const reference = pressure * scale;
-        let capacity = specificStoragePerPa[cell] as number;
-        if (reference < airEntryRef) {
-          lookup(reference);
-          capacity = (options.porosity * lookupSlope) / pressure;
-        }
-        const residual = target - waterContent(cell, pressure);
-        if (!(capacity > 0) || Math.abs(residual) <= 1e-15 * Math.abs(target)) break;
-        let next = pressure + residual / capacity;
-        // Keep suction growth bounded per iteration (the curve is steep in ln p).
-        if (next < 10 * Math.min(pressure, -1000)) next = 10 * Math.min(pressure, -1000);
-        if (next > 0 && pressure < 0 && reference < airEntryRef) next = 0.5 * pressure;
-        const settled = Math.abs(next - pressure) <= 1e-13 * Math.abs(pressure);
-        pressure = next;
-        if (settled) break;
+      // Exact inverse of the same interpolant the forward curve uses: the storage line above the
+      // air entry, else the table segment holding the target saturation (binary search on the
+      // decreasing node saturations) solved for its position, then p = -exp(u) / c.
+      const scale = pressureScale[cell] as number;
+      const storageCoefficient = specificStoragePerPa[cell] as number;
+      const airEntryWater = porosity + (storageCoefficient * airEntryRef) / scale;
+      if (!(target < airEntryWater)) {
+        if (storageCoefficient > 0) return (target - porosity) / storageCoefficient;
+        return Math.max(guessPa, airEntryRef / scale);
       }
-      return pressure;
+      const saturation = (target - (storageCoefficient * airEntryRef) / scale) / porosity;
+      if (!(saturation > (tableSaturation[lastNode] as number))) {
+        // At or below the driest tabulated saturation the curve is flat: keep a guess beyond it.
+        const driestPa = -Math.exp(logStart + lastNode / inverseStep) / scale;
+        return guessPa < driestPa ? guessPa : driestPa;
+      }
+      let low = 0; // tableSaturation[low] >= saturation
+      let high = lastNode; // tableSaturation[high] < saturation
+      while (high - low > 1) {
+        const middle = (low + high) >> 1;
+        if ((tableSaturation[middle] as number) >= saturation) low = middle;
+        else high = middle;
+      }
+      const s0 = tableSaturation[low] as number;
+      const s1 = tableSaturation[low + 1] as number;
+      const weight = s1 === s0 ? 0 : (saturation - s0) / (s1 - s0);
+      return -Math.exp(logStart + (low + weight) / inverseStep) / scale;
     },
     equivalentPorePressurePa(cell, pressurePa) {
       const scale = pressureScale[cell] as number;
@@ -292,7 +302,7 @@ export function createPoreHydraulics(options: PoreHydraulicsOptions): PoreHydrau
         if (reference >= airEntryRef) {
           capacityPerPa[i] = storageCoefficient;
           const stored = storageCoefficient * pressure;
-          water[i] = options.porosity + stored;
+          water[i] = porosity + stored;
           if (storageContent !== undefined) storageContent[i] = stored;
           conductivity[i] = table.saturatedPermeabilityM2 * liquid;
           if (conductivitySlope !== undefined) conductivitySlope[i] = 0;
@@ -302,9 +312,9 @@ export function createPoreHydraulics(options: PoreHydraulicsOptions): PoreHydrau
         const s = lookupSaturation;
         // d/dp = (d/du) / p with u = ln(-p c); dS/dp > 0 as dS/du < 0 and p < 0.
         const saturationSlope = lookupSlope / pressure;
-        capacityPerPa[i] = options.porosity * saturationSlope;
+        capacityPerPa[i] = porosity * saturationSlope;
         const stored = (storageCoefficient * airEntryRef) / scale;
-        water[i] = options.porosity * s + stored;
+        water[i] = porosity * s + stored;
         if (storageContent !== undefined) storageContent[i] = stored;
         // Kelvin h = exp(p / A) inline: this loop runs for every cell in every iteration.
         const inverseA = inverseKelvin[i] as number;
