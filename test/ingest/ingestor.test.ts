@@ -58,6 +58,14 @@ describe('Ingestor', () => {
     expect(archive.totals().readings).toBe(1);
   });
 
+  it('status() records a repeated status (a retained message after a reconnect) once', () => {
+    const ingestor = new Ingestor(archive, { clock: () => NOW_MS });
+    for (const status of ['online', 'online', 'offline', 'offline', 'online']) {
+      ingestor.status('meniscus/harbour-deck/probe-a/status', Buffer.from(status));
+    }
+    expect(archive.records('run-1').filter((r) => r.kind === 'event')).toHaveLength(3);
+  });
+
   const statuses = [
     { payload: 'online', expected: 'online' },
     { payload: '  offline\n', expected: 'offline' },

@@ -145,16 +145,24 @@ export class Archive extends ArchiveQueries {
     }
   }
 
-  /** Records a device status (retained status or last will) on every open run using it. */
+  /**
+   * Records a device status (retained status or last will) on every open run using it, with a
+   * `device-status` event when it differs from the status already recorded.
+   */
   recordDeviceStatus(site: string, device: string, status: string, atMs: number): void {
     const runs = this.bindingsFor(site, device);
     if (runs.length === 0) return;
     this.db.transaction(() => {
       for (const binding of runs) {
-        this.db
-          .prepare('UPDATE devices SET status = ?, status_at_ms = ? WHERE run_id = ? AND name = ?')
-          .run(status, atMs, binding.runId, device);
-        this.#appendEventRow(binding.runId, atMs, 'device-status', { device, status });
+        // A retained status comes again at every reconnect: record changes only.
+        const changed = this.db
+          .prepare(
+            'UPDATE devices SET status = ?, status_at_ms = ? WHERE run_id = ? AND name = ? AND status IS NOT ?',
+          )
+          .run(status, atMs, binding.runId, device, status);
+        if (changed.changes > 0) {
+          this.#appendEventRow(binding.runId, atMs, 'device-status', { device, status });
+        }
       }
     })();
   }
