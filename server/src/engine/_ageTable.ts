@@ -1,5 +1,5 @@
 /**
- * A lazily filled table of a smooth function of equivalent age, for the element model's per-step
+ * A lazily filled table of smooth functions of equivalent age, for the element model's per-step
  * loop: the specific storage and the pore-refinement factor of every cell are functions of that
  * cell's equivalent age alone, and evaluating the strength, hydration and Powers-Brownyard laws
  * for every cell after every step cost more than the transport step itself. The table is uniform
@@ -9,49 +9,70 @@
 
 /** Options of {@link createAgeTable}. */
 export interface AgeTableOptions {
-  /** Youngest tabulated age, s; younger ages call the function itself. Default 600 (our choice). */
+  /** Youngest tabulated age, s; younger ages call the laws themselves. Default 600 (our choice). */
   minAgeS?: number;
-  /** Oldest tabulated age, s; older ages call the function itself. Default 1e9 (about 32 years). */
+  /** Oldest tabulated age, s; older ages call the laws themselves. Default 1e9 (about 32 years). */
   maxAgeS?: number;
   /**
-   * Node spacing in ln(age), default 0.002 (0.2 % of the age; our choice): the linear
-   * interpolation error is below h^2/8 |f''(ln t)|, about 5e-7 of the value for laws whose
-   * logarithmic slope stays below a few, far below the 1e-3 update threshold of the model.
+   * Node spacing in ln(age), default 0.005 (0.5 % of the age; our choice): the linear
+   * interpolation error is below h^2/8 |f''(ln t)|, about 3e-6 |f''| (a few 1e-5 of the value
+   * for laws whose logarithmic slope stays below a few), well below the 1e-3 update threshold of
+   * the model; a day of ages fills about 1000 nodes.
    */
   logStep?: number;
 }
 
+/** Look-up of several laws at one age; `values[k]` holds law k after {@link AgeTable.at}. */
+export interface AgeTable {
+  readonly values: Float64Array;
+  /** Fills `values` with every law at `ageS` (s). */
+  at(ageS: number): void;
+}
+
 /**
- * Wraps `law` (a function of equivalent age in s) in a look-up table uniform in ln(age):
- *   f(t) ~ f_j + w (f_{j+1} - f_j),  j + w = (ln t - ln t_min) / h.
- * Exact (the law itself) outside [minAgeS, maxAgeS]. NaN ages give the law's answer for NaN.
- * The law must be pure (same answer for the same age).
+ * Wraps `laws` (functions of equivalent age in s, pure) in one look-up table uniform in ln(age):
+ *   f_k(t) ~ f_k,j + w (f_k,j+1 - f_k,j),  j + w = (ln t - ln t_min) / h.
+ * Exact (the laws themselves) outside [minAgeS, maxAgeS]; a NaN age gives the laws' answer for
+ * NaN.
  */
 export function createAgeTable(
-  law: (ageS: number) => number,
+  laws: readonly ((ageS: number) => number)[],
   options: AgeTableOptions = {},
-): (ageS: number) => number {
+): AgeTable {
+  const lawCount = laws.length;
   const minAgeS = options.minAgeS ?? 600;
   const maxAgeS = options.maxAgeS ?? 1e9;
-  const logStep = options.logStep ?? 0.002;
+  const logStep = options.logStep ?? 0.005;
   const logStart = Math.log(minAgeS);
   const inverseStep = 1 / logStep;
   const lastNode = Math.ceil((Math.log(maxAgeS) - logStart) * inverseStep);
-  const values = new Float64Array(lastNode + 1).fill(Number.NaN);
-  const nodeValue = (node: number): number => {
-    let value = values[node] as number;
-    if (Number.isNaN(value)) {
-      value = law(Math.exp(logStart + node * logStep));
-      values[node] = value;
-    }
-    return value;
+  const nodes = new Float64Array((lastNode + 1) * lawCount);
+  const filled = new Uint8Array(lastNode + 1);
+  const values = new Float64Array(lawCount);
+  const fill = (node: number): void => {
+    filled[node] = 1;
+    const ageS = Math.exp(logStart + node * logStep);
+    for (let k = 0; k < lawCount; k += 1)
+      nodes[node * lawCount + k] = (laws[k] as (a: number) => number)(ageS);
   };
-  return (ageS: number): number => {
-    if (!(ageS >= minAgeS && ageS <= maxAgeS)) return law(ageS);
-    const position = (Math.log(ageS) - logStart) * inverseStep;
-    const node = Math.min(lastNode - 1, Math.floor(position));
-    const weight = position - node;
-    const low = nodeValue(node);
-    return low + weight * (nodeValue(node + 1) - low);
+  return {
+    values,
+    at(ageS) {
+      if (!(ageS >= minAgeS && ageS <= maxAgeS)) {
+        for (let k = 0; k < lawCount; k += 1) values[k] = (laws[k] as (a: number) => number)(ageS);
+        return;
+      }
+      const position = (Math.log(ageS) - logStart) * inverseStep;
+      const node = Math.min(lastNode - 1, Math.floor(position));
+      const weight = position - node;
+      if (filled[node] === 0) fill(node);
+      if (filled[node + 1] === 0) fill(node + 1);
+      const low = node * lawCount;
+      const high = low + lawCount;
+      for (let k = 0; k < lawCount; k += 1) {
+        const below = nodes[low + k] as number;
+        values[k] = below + weight * ((nodes[high + k] as number) - below);
+      }
+    },
   };
 }

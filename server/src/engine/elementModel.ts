@@ -8,6 +8,7 @@ import { arrheniusAgeFactor, type MaturityOptions } from '../physics/maturity.ts
 import {
   hydrationHumidityFactor,
   schindlerFolliardDegreeOfHydration,
+  type HydrationHumidityOptions,
 } from '../physics/hydration.ts';
 import { inPlaceStrength } from '../physics/strengthDevelopment.ts';
 import type { DryingStressMode } from '../physics/dryingStress.ts';
@@ -145,6 +146,8 @@ export function createElementModel(config: ElementModelConfig): ElementModel {
   const threshold = options.refinementUpdateThreshold ?? 1e-3;
   const waterBulkModulus = options.waterBulkModulusPa ?? 2.2e9;
   const maturityOptions = options.maturity ?? {};
+  // One options object for every call (a default parameter would be a new object per call).
+  const humidityOptions: HydrationHumidityOptions = {};
   const waterBefore = new Float64Array(n);
   const targetStorage = new Float64Array(n);
   const targetScale = new Float64Array(n);
@@ -174,17 +177,16 @@ export function createElementModel(config: ElementModelConfig): ElementModel {
   };
   // Storage and refinement targets depend on a cell's equivalent age alone: tabulated in
   // ln(age) (see _ageTable.ts) so that every cell can be checked after every step cheaply.
-  const storageAtAge = createAgeTable(specificStorage);
   const mixForScale = material.mix;
-  const scaleAtAge =
+  const refinementScale = (ageS: number): number =>
     refinementOn && mixForScale !== undefined
-      ? createAgeTable((ageS) =>
-          refinementDiameterScale(
-            mixForScale,
-            schindlerFolliardDegreeOfHydration(ageS, mixForScale.hydration),
-          ),
+      ? refinementDiameterScale(
+          mixForScale,
+          schindlerFolliardDegreeOfHydration(ageS, mixForScale.hydration),
         )
-      : (): number => 1;
+      : 1;
+  const targetsAtAge = createAgeTable([specificStorage, refinementScale]);
+  const targets = targetsAtAge.values;
 
   const applyState = (state: ElementState): void => {
     hydraulics.temperatureK.set(state.temperatureK);
@@ -369,12 +371,13 @@ export function createElementModel(config: ElementModelConfig): ElementModel {
       const pressure = pressures[i] as number;
       const humidityFactor =
         humidityFactorOn && pressure < 0
-          ? hydrationHumidityFactor(hydraulics.relativeHumidity(i, pressure))
+          ? hydrationHumidityFactor(hydraulics.relativeHumidity(i, pressure), humidityOptions)
           : 1;
       const age = (ages[i] as number) + stepS * (maturityRate[i] as number) * humidityFactor;
       ages[i] = age;
-      const storage = storageAtAge(age);
-      const scale = scaleAtAge(age);
+      targetsAtAge.at(age);
+      const storage = targets[0] as number;
+      const scale = targets[1] as number;
       const storageNow = storages[i] as number;
       const scaleNow = scales[i] as number;
       if (

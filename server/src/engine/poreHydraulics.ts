@@ -129,33 +129,23 @@ export function createPoreHydraulics(options: PoreHydraulicsOptions): PoreHydrau
   const tablePermeability = table.permeabilityM2;
   const lastNode = table.nodeCount - 1;
   const porosity = options.porosity;
+  const saturatedPermeability = table.saturatedPermeabilityM2;
   const logStart = table.logSuctionStart;
   const inverseStep = table.inverseStep;
   // Scratch of the interpolation (module-free, no allocation per call).
   let lookupSaturation = 1;
-  let lookupSlope = 0; // dS/du
-  let lookupPermeability = table.saturatedPermeabilityM2;
-  let lookupPermeabilitySlope = 0; // dk/du
-  /** Interpolates the table at a reference pressure below the air entry. */
+  /** Interpolates the saturation table at a reference pressure below the air entry. */
   const lookup = (referencePa: number): void => {
     const position = (Math.log(-referencePa) - logStart) * inverseStep;
     if (position >= lastNode) {
       lookupSaturation = tableSaturation[lastNode] as number;
-      lookupSlope = 0;
-      lookupPermeability = tablePermeability[lastNode] as number;
-      lookupPermeabilitySlope = 0;
       return;
     }
     const node = position > 0 ? Math.floor(position) : 0;
     const weight = position - node;
     const s0 = tableSaturation[node] as number;
     const s1 = tableSaturation[node + 1] as number;
-    const k0 = tablePermeability[node] as number;
     lookupSaturation = s0 + weight * (s1 - s0);
-    lookupSlope = (s1 - s0) * inverseStep;
-    const k1 = tablePermeability[node + 1] as number;
-    lookupPermeability = k0 + weight * (k1 - k0);
-    lookupPermeabilitySlope = (k1 - k0) * inverseStep;
   };
   let multiplier = options.permeabilityMultiplier ?? 1;
   const vapourOn = options.vapourDiffusion ?? true;
@@ -304,14 +294,36 @@ export function createPoreHydraulics(options: PoreHydraulicsOptions): PoreHydrau
           const stored = storageCoefficient * pressure;
           water[i] = porosity + stored;
           if (storageContent !== undefined) storageContent[i] = stored;
-          conductivity[i] = table.saturatedPermeabilityM2 * liquid;
+          conductivity[i] = saturatedPermeability * liquid;
           if (conductivitySlope !== undefined) conductivitySlope[i] = 0;
           continue;
         }
-        lookup(reference);
-        const s = lookupSaturation;
+        // The table look-up of `lookup`, inlined with locals: this loop runs for every cell in
+        // every iteration, and writes to the shared scratch variables cost more than the maths.
+        const position = (Math.log(-reference) - logStart) * inverseStep;
+        let s: number;
+        let permeabilityM2: number;
+        let saturationPerU: number; // dS/du
+        let permeabilityPerU: number; // dk/du
+        if (position >= lastNode) {
+          s = tableSaturation[lastNode] as number;
+          permeabilityM2 = tablePermeability[lastNode] as number;
+          saturationPerU = 0;
+          permeabilityPerU = 0;
+        } else {
+          const node = position > 0 ? Math.floor(position) : 0;
+          const weight = position - node;
+          const s0 = tableSaturation[node] as number;
+          const s1 = tableSaturation[node + 1] as number;
+          const k0 = tablePermeability[node] as number;
+          const k1 = tablePermeability[node + 1] as number;
+          s = s0 + weight * (s1 - s0);
+          saturationPerU = (s1 - s0) * inverseStep;
+          permeabilityM2 = k0 + weight * (k1 - k0);
+          permeabilityPerU = (k1 - k0) * inverseStep;
+        }
         // d/dp = (d/du) / p with u = ln(-p c); dS/dp > 0 as dS/du < 0 and p < 0.
-        const saturationSlope = lookupSlope / pressure;
+        const saturationSlope = saturationPerU / pressure;
         capacityPerPa[i] = porosity * saturationSlope;
         const stored = (storageCoefficient * airEntryRef) / scale;
         water[i] = porosity * s + stored;
@@ -320,10 +332,10 @@ export function createPoreHydraulics(options: PoreHydraulicsOptions): PoreHydrau
         const inverseA = inverseKelvin[i] as number;
         const humidity = Math.exp(Math.min(0, pressure) * inverseA);
         const vapour = vapourFactor[i] as number;
-        conductivity[i] = lookupPermeability * liquid + vapour * (1 - s) * humidity;
+        conductivity[i] = permeabilityM2 * liquid + vapour * (1 - s) * humidity;
         if (conductivitySlope !== undefined) {
           conductivitySlope[i] =
-            (lookupPermeabilitySlope * liquid) / pressure +
+            (permeabilityPerU * liquid) / pressure +
             vapour * humidity * ((1 - s) * inverseA - saturationSlope);
         }
       }
