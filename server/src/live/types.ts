@@ -1,0 +1,175 @@
+/**
+ * Types of the per-run live engine (issue 6): what the server feeds it (readings, measure log,
+ * forecast) and what it returns (RunState, served by GET /api/runs/:id/state and pushed over
+ * socket.io). Agreed in /work/notes/live-contract.md; add fields freely, never rename.
+ */
+import type { RunConfig } from '../config/index.ts';
+
+/**
+ * One committed reading as the engine needs it, in canonical units after ingest conversion:
+ * relative humidity in %RH, temperature in degC (`Cel`), wind in m/s, solar radiation in W/m2.
+ */
+export interface LiveReading {
+  device: string;
+  sensor: string;
+  /** Event time (the device's timestamp), ms since the Unix epoch. */
+  eventTimeMs: number;
+  value: number;
+  /** Canonical SenML unit after ingest conversion (`%RH`, `Cel`, `m/s`, `W/m2`, `mm`). */
+  unit: string;
+}
+
+/** Kinds of curing measure the log may hold (terms of the trade, physics.md 4). */
+export type MeasureKind = 'wet-covering' | 'ponding' | 'curing-compound' | 'fogging' | 'windbreak';
+
+/** One entry of the measure log. */
+export interface MeasureEntry {
+  id: string;
+  kind: MeasureKind | string;
+  /** Start of the measure, ms since the Unix epoch. */
+  startMs: number;
+  /** End, ms since the Unix epoch; null while still applied. */
+  endMs: number | null;
+  loggedBy: string;
+  /** Curing compound efficiency 0..1 (its own figure; the calibration multiplies it). */
+  efficiency?: number;
+  note?: string;
+}
+
+/** A supplied weather forecast point (persistence of the recent mean is used when none). */
+export interface ForecastPoint {
+  timeMs: number;
+  airTemperatureC?: number;
+  relativeHumidityPercent?: number;
+  /** Wind speed at the station's mast height, m/s. */
+  windSpeedMs?: number;
+  solarWm2?: number;
+}
+
+/** Options of createRunEngine; every field optional, defaults in brackets. */
+export interface RunEngineOptions {
+  /** Seed of the ensemble [derived from the run id by a string hash, so a replay is identical]. */
+  seed?: number;
+  /** Ensemble members [32, issue 6]. */
+  memberCount?: number;
+  /** Outlook horizon, h [6, physics.md 9]. */
+  horizonH?: number;
+  /** Event time between analyses, s [300, our assumption]. */
+  assimilationIntervalS?: number;
+  /** Cells through the depth [60, issue 6]. */
+  cellCount?: number;
+  /** Outlook every n analyses [1, our assumption: each analysis brings a fresh outlook]. */
+  outlookEveryAnalyses?: number;
+  /** Output step of the outlook, s [600, our assumption]. */
+  outlookStepS?: number;
+  /** Longest a weather value is held when its stream is silent, s [900, our assumption]. */
+  weatherHoldS?: number;
+  /** A probe is flagged silent after this long without a reading, s [1800, our assumption]. */
+  probeSilentS?: number;
+  /** Window of the recent weather mean used for persistence, s [3600, our assumption]. */
+  persistenceWindowS?: number;
+  /** Target compressive strength for timeToTargetStrengthH, MPa [70 % of fck, common practice]. */
+  targetStrengthMPa?: number;
+}
+
+/** Quantile band at 5 %, 50 % and 95 %. */
+export interface Band {
+  p05: number[];
+  p50: number[];
+  p95: number[];
+}
+
+/** The outlook of physics.md 9. */
+export interface RunOutlook {
+  horizonH: number;
+  timesMs: number[];
+  utilizationBand: Band;
+  marginBandMPa: Band;
+  crossings: {
+    threshold: number;
+    probability: number;
+    expectedTimeMs: number | null;
+    medianTimeMs: number | null;
+  }[];
+  probabilityCrackingWithinHorizon: number;
+  forecastSource: 'persistence' | 'supplied';
+}
+
+/** A probe reading beside the model's value at its depth. */
+export interface ProbeProfilePoint {
+  device: string;
+  sensor: string;
+  depthMm: number;
+  measuredRhPercent: number | null;
+  modelRhPercent: number;
+  modelRhSdPercent: number;
+}
+
+/** Depth profiles (cell centres) with probe readings beside the model. */
+export interface RunProfiles {
+  depthMm: number[];
+  saturation: Band;
+  stressMPa: Band;
+  probes: ProbeProfilePoint[];
+}
+
+/** One data-quality flag: `weather-held`, `weather-gap`, `probe-silent`, `degraded`... */
+export interface QualityFlag {
+  code: string;
+  message: string;
+  sinceMs: number;
+}
+
+/** What GET /api/runs/:id/state returns and socket.io pushes (JSON; keys with unit suffixes). */
+export interface RunState {
+  runId: string;
+  /** Engine's event time, ms (null before the first reading). */
+  eventTimeMs: number | null;
+  phase: 'before-placement' | 'plastic' | 'hardening';
+  surfaceStressMPa: number | null;
+  fctmMPa: number | null;
+  utilization: number | null;
+  marginMPa: number | null;
+  evaporationKgM2h: number | null;
+  inPlaceCompressiveStrengthMPa: number | null;
+  timeToTargetStrengthH: number | null;
+  outlook: RunOutlook | null;
+  profiles: RunProfiles | null;
+  calibration: { name: string; mean: number; sd: number; p05: number; p95: number }[];
+  quality: { degraded: boolean; flags: QualityFlag[] };
+  caution: string;
+}
+
+/** JSON-serialisable snapshot of a run engine (version tag, opaque body). */
+export interface RunEngineSnapshot {
+  version: 1;
+  runId: string;
+  /** Event time the snapshot was taken at, ms (null before the first reading). */
+  eventTimeMs: number | null;
+  body: unknown;
+}
+
+/** The per-run live engine. */
+export interface RunEngine {
+  readonly runId: string;
+  /** Readings in any order; buffered and consumed in event-time order. */
+  addReadings(readings: readonly LiveReading[]): void;
+  /** Replace the measure log (the whole log, as stored). */
+  setMeasures(measures: readonly MeasureEntry[]): void;
+  /** Replace the supplied forecast series (empty: persistence). */
+  setForecast(points: readonly ForecastPoint[]): void;
+  /** Advance as far as the buffered readings allow; returns the new state when it moved, else null. */
+  advance(): RunState | null;
+  /** Latest state (figures, outlook, profiles, calibration, quality). */
+  state(): RunState;
+  /** JSON-serialisable snapshot; createRunEngine(runId, config, options, snapshot) resumes from it. */
+  snapshot(): RunEngineSnapshot;
+}
+
+/** Signature of the factory, for callers that inject it. */
+export type CreateRunEngine = (
+  runId: string,
+  config: RunConfig,
+  options?: RunEngineOptions,
+  snapshot?: RunEngineSnapshot,
+) => RunEngine;
