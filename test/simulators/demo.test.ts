@@ -91,6 +91,36 @@ describe('the demo (server, run over HTTP, scenario on the engine truth)', () =>
   );
 });
 
+describe('the demo with the measure log "fogging"', () => {
+  it("logs the crew's measures as they start and the truth's margin stays open", async () => {
+    const dataDir = mkdtempSync(join(tmpdir(), 'meniscus-demo-'));
+    const printed: string[] = [];
+    const demo = await startDemo({
+      config: serverConfigFromEnv({
+        MENISCUS_DATA_DIR: dataDir,
+        MENISCUS_HTTP_PORT: '0',
+        MENISCUS_MQTT_PORT: '0',
+        MENISCUS_LOG_LEVEL: 'silent',
+      }),
+      measureLog: 'fogging',
+      durationH: 3,
+      clock: virtualClock(),
+      print: (line) => printed.push(line),
+    });
+    try {
+      await demo.played;
+      expect(printed.filter((line) => line.startsWith('  measure '))).toEqual([
+        '  measure     fogging from 2026-07-16T12:50:00+02:00 to 2026-07-16T18:00:00+02:00',
+        '  measure     windbreak from 2026-07-16T13:00:00+02:00',
+      ]);
+      expect(demo.truthMarginClosedAtMs()).toBeNull();
+    } finally {
+      await demo.server.close();
+      rmSync(dataDir, { recursive: true, force: true });
+    }
+  }, 90_000);
+});
+
 describe('scripts/demo.js', () => {
   it('exits 2 with a one-line message for a speed out of range, before starting anything', async () => {
     const child = spawn(
