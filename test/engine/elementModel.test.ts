@@ -90,15 +90,66 @@ describe('element model behaviour', () => {
     expect(covered.waterLossKgM2).toBeGreaterThan(0.1);
   });
 
-  it('a curing compound lowers the peak surface stress, more the more efficient it is', () => {
-    const peaks = [0, 0.5, 0.9].map((efficiency) => {
-      const model = modelOf('cement-mortar-fine', 0.05);
+  // A curing compound multiplies the evaporation by (1 - efficiency) (physics.md section 4), so
+  // a surface with the same pore structure dries slower and the drying stress, which follows the
+  // contrast of equivalent pore pressure between the surface and the depth (section 5), peaks
+  // lower. That holds wherever the pores do not refine during the run: the non-hydrating presets,
+  // the fine mortar (its pores are already fine), and the concretes with pore refinement off.
+  const efficiencies = [0, 0.25, 0.5, 0.9];
+  const compoundRuns = (
+    presetId: string,
+    options: Parameters<typeof modelOf>[3] = {},
+  ): ReturnType<typeof run>[] =>
+    efficiencies.map((efficiency) => {
       const measures = efficiency > 0 ? [measure('curing-compound', 0, 48, { efficiency })] : [];
-      return run(model, steadyWeather(30, 0.4, 5), 12, measures).maxSurfaceStressPa;
+      return run(
+        modelOf(presetId, 0.05, 'one-face', options),
+        steadyWeather(30, 0.4, 5),
+        12,
+        measures,
+      );
     });
-    expect(peaks[1]).toBeLessThan(peaks[0] ?? Number.NaN);
-    expect(peaks[2]).toBeLessThan(peaks[1] ?? Number.NaN);
-  });
+  const falling = (values: readonly number[]): void => {
+    for (let k = 1; k < values.length; k += 1) {
+      expect(values[k]).toBeLessThan(values[k - 1] ?? Number.NaN);
+    }
+  };
+  const hardeningPeakUtilization = (result: ReturnType<typeof run>): number =>
+    Math.max(...result.series.filter((f) => f.phase === 'hardening').map((f) => f.utilization));
+  const peakTimeS = (result: ReturnType<typeof run>): number =>
+    result.series.reduce((a, f) => (f.surfaceStressPa > a.surfaceStressPa ? f : a)).timeS;
+
+  it.each([
+    ['building-stone-coarse', 'no hydration', {}],
+    ['earthen-plaster', 'no hydration', {}],
+    ['cement-mortar-fine', 'fine pores from the start', {}],
+    ['normal-concrete', 'pore refinement off', { poreRefinement: false }],
+    ['low-wc-concrete', 'pore refinement off', { poreRefinement: false }],
+  ] as const)(
+    'a curing compound lowers the peak surface stress of %s (%s), more the more efficient it is',
+    (presetId, _why, options) => {
+      falling(compoundRuns(presetId, options).map((result) => result.maxSurfaceStressPa));
+    },
+  );
+
+  // The exception: in the concretes the pores refine as they hydrate (physics.md section 2), so
+  // a weak compound that only slows the drying lets the steepest drying profile form hours later,
+  // in finer pores whose capillary pressures are higher for the same loss of water: the peak
+  // stress moves later and can exceed the peak without compound (normal-concrete at 25 %:
+  // about 0.15 against 0.12 MPa in this scenario; the same runs with refinement off fall, see
+  // above). The strength has grown more by then, so the figure that matters for cracking, the
+  // hardening-phase utilization (stress over the strength of the day, section 7), still falls.
+  it.each(['normal-concrete', 'low-wc-concrete'])(
+    'a curing compound on %s with pore refinement moves the stress peak later and lowers the hardening-phase utilization',
+    (presetId) => {
+      const results = compoundRuns(presetId);
+      falling(results.map(hardeningPeakUtilization));
+      const [none, weak] = results;
+      expect(peakTimeS(weak as ReturnType<typeof run>)).toBeGreaterThan(
+        peakTimeS(none as ReturnType<typeof run>),
+      );
+    },
+  );
 
   // Common practice (physics.md section 5, not a published source): under harsh drying a
   // coarse-pored stone stays near 0.1 MPa, a fine-pored mortar passes its ~3 MPa tensile strength.
