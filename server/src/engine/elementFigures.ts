@@ -25,6 +25,11 @@ import {
 import { SECONDS_PER_DAY, SECONDS_PER_HOUR } from '../physics/units.ts';
 import type { ElementModel } from './elementModel.ts';
 import type { ElementState } from './elementState.ts';
+import {
+  DEFAULT_TARGET_COMPRESSIVE_STRENGTH_MPA,
+  strengthForecast,
+  type StrengthForecast,
+} from './strengthForecast.ts';
 
 /** Depth profiles at one instant, index 0 at the exposed surface. SI units. */
 export interface ElementProfiles {
@@ -70,17 +75,24 @@ export interface ElementFigures {
   coreSurfaceTemperature: CoreSurfaceTemperatureCheck;
   /** Water evaporated since placement, kg/m2. */
   waterLossKgM2: number;
+  /** Hours until the surface and the core reach the target compressive strength (physics.md 6). */
+  strengthForecast: StrengthForecast;
   profiles: ElementProfiles;
 }
 
 /**
  * Evaluates the figures of `state` under `model`. For `two-face` drying the profiles cover the
  * half thickness (surface to symmetry plane) and 'curl' acts as 'flat'.
+ *
+ * @param thresholds utilization thresholds (physics.md section 7 defaults)
+ * @param targetCompressiveStrengthMPa target of the strength forecast, MPa (default
+ *   {@link DEFAULT_TARGET_COMPRESSIVE_STRENGTH_MPA}, see strengthForecast.ts)
  */
 export function evaluateElement(
   model: ElementModel,
   state: ElementState,
   thresholds: UtilizationThresholds = DEFAULT_UTILIZATION_THRESHOLDS,
+  targetCompressiveStrengthMPa: number = DEFAULT_TARGET_COMPRESSIVE_STRENGTH_MPA,
 ): ElementFigures {
   model.applyState(state);
   const { grid, hydraulics, material, config } = model;
@@ -183,6 +195,7 @@ export function evaluateElement(
       state.temperatureK[0] as number,
     ),
     waterLossKgM2: state.evaporatedKgM2,
+    strengthForecast: strengthForecast(model, state, targetCompressiveStrengthMPa),
     profiles,
   };
 }

@@ -16,4 +16,5 @@ export * from './surfaceEvaporation.ts';
 export * from './elementState.ts';
 export * from './elementModel.ts';
 export * from './elementFigures.ts';
+export * from './strengthForecast.ts';
 export * from './simulateElement.ts';

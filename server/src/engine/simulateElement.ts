@@ -4,6 +4,7 @@
  * and collects the figures over time and depth profiles at requested times.
  */
 import { curingMeasuresActiveAt, type CuringMeasure } from '../physics/curingMeasures.ts';
+import { DEFAULT_UTILIZATION_THRESHOLDS } from '../physics/utilization.ts';
 import type { BoundaryInputs, ProbeTemperature } from './boundaryInputs.ts';
 import { evaluateElement, type ElementFigures, type ElementProfiles } from './elementFigures.ts';
 import type { ElementModel } from './elementModel.ts';
@@ -36,6 +37,11 @@ export interface SimulationRequest {
   maxInputIntervalS?: number;
   /** Start from this state instead of a fresh one (it is advanced in place). */
   initialState?: ElementState;
+  /**
+   * Target in-place compressive strength of the figures' strength forecast, MPa; default
+   * DEFAULT_TARGET_COMPRESSIVE_STRENGTH_MPA (strengthForecast.ts).
+   */
+  targetCompressiveStrengthMPa?: number;
   /** Called after each output time with the fraction done (0..1). */
   onProgress?: (fraction: number) => void;
 }
@@ -127,12 +133,21 @@ export function simulateElement(request: SimulationRequest): SimulationResult {
     }
   }
   const sortedBreaks = [...breaks].sort((a, b) => a - b);
-  const series: ElementFigures[] = [evaluateElement(model, state)];
+  const evaluate = (): ElementFigures =>
+    request.targetCompressiveStrengthMPa === undefined
+      ? evaluateElement(model, state)
+      : evaluateElement(
+          model,
+          state,
+          DEFAULT_UTILIZATION_THRESHOLDS,
+          request.targetCompressiveStrengthMPa,
+        );
+  const series: ElementFigures[] = [evaluate()];
   const profiles: SimulationResult['profiles'] = [];
   if ((request.profileTimesS ?? []).includes(startS)) {
     profiles.push({
       timeS: startS,
-      profiles: series[0]?.profiles ?? evaluateElement(model, state).profiles,
+      profiles: series[0]?.profiles ?? evaluate().profiles,
     });
   }
   let timeS = startS;
@@ -157,7 +172,7 @@ export function simulateElement(request: SimulationRequest): SimulationResult {
       timeS = nextS;
     }
     if (outputTimes.has(breakS) || profileTimes.has(breakS)) {
-      const figures = evaluateElement(model, state);
+      const figures = evaluate();
       if (outputTimes.has(breakS)) series.push(figures);
       if (profileTimes.has(breakS)) profiles.push({ timeS: breakS, profiles: figures.profiles });
       request.onProgress?.((breakS - startS) / request.durationS);
