@@ -46,6 +46,35 @@ describe('meniscus simulate', () => {
     expect(json.waterLossKgM2).toBeGreaterThan(0);
   });
 
+  it('--target-fcm sets the strength forecast: hours to the target at the end of the run, surface and core', async () => {
+    const forecastOf = async (target: string[]) => {
+      const { json } = await runCliJson(
+        [
+          'simulate',
+          '--material',
+          'normal-concrete',
+          '--thickness-mm',
+          '100',
+          '--cells',
+          '30',
+        ].concat(STEADY, ['--hours', '8'], target),
+        undefined,
+        callCli,
+      );
+      return json.strengthForecast as {
+        targetFcmMPa: number;
+        surfaceHours: number;
+        coreHours: number;
+      };
+    };
+    const standard = await forecastOf([]);
+    const higher = await forecastOf(['--target-fcm', '25']);
+    expect(standard.targetFcmMPa).toBe(10);
+    expect(higher.targetFcmMPa).toBe(25);
+    expect(higher.coreHours).toBeGreaterThan(standard.coreHours);
+    expect(standard.coreHours).toBeGreaterThan(0);
+  });
+
   it('reads a weather CSV with ISO times and a measure log, and the measure lowers the water loss', async () => {
     const weather = folder.write(
       'weather.csv',

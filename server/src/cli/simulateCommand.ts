@@ -141,6 +141,7 @@ async function run(flags: FlagReader, context: CommandContext) {
   const measuresPath = flags.optionalString('--measures');
   const measures = measuresPath === undefined ? [] : engine.readMeasures(measuresPath, context.cwd);
   const profileHours = listOfHours(flags.optionalString('--profiles-at'), hours);
+  const targetFcmMPa = flags.optionalNumber('--target-fcm', { unit: 'MPa', min: 0, max: 150 });
   const plotPath = flags.optionalString('--plot');
   if (plotPath !== undefined && !/\.(png|svg)$/i.test(plotPath)) {
     throw new UsageError('--plot', 'must name a .png or .svg file', JSON.stringify(plotPath));
@@ -162,6 +163,7 @@ async function run(flags: FlagReader, context: CommandContext) {
     durationS: hours * 3600,
     outputIntervalS: hours <= 48 ? 900 : 3600,
     profileTimesS: profileHours.map((hour) => hour * 3600),
+    ...(targetFcmMPa === undefined ? {} : { targetCompressiveStrengthMPa: targetFcmMPa }),
     onProgress: (fraction) => {
       // Progress only for runs longer than a second, on stderr so stdout stays parseable.
       const tenth = Math.floor(fraction * 10);
@@ -196,6 +198,12 @@ async function run(flags: FlagReader, context: CommandContext) {
   notes.push(
     'plastic phase (before final set): utilization is surface suction over the critical suction; hardening phase: surface stress over tensile strength.',
   );
+  const forecast = result.series.at(-1)?.strengthForecast;
+  const strengthForecast = {
+    targetFcmMPa: forecast?.targetCompressiveStrengthMPa ?? Number.NaN,
+    surfaceHours: forecast?.surfaceHours ?? Number.NaN,
+    coreHours: forecast?.coreHours ?? Number.NaN,
+  };
   const summary = {
     maxSurfaceStressMPa: result.maxSurfaceStressPa / 1e6,
     minMarginMPa: result.minMarginPa / 1e6,
@@ -217,6 +225,7 @@ async function run(flags: FlagReader, context: CommandContext) {
       hours,
       cells: model.grid.cellCount,
       ...summary,
+      strengthForecast,
       series,
       profiles,
       notes,
@@ -229,6 +238,11 @@ async function run(flags: FlagReader, context: CommandContext) {
           ['smallest margin (hardening phase)', formatNumber(summary.minMarginMPa, 2), 'MPa'],
           ['peak utilization', formatNumber(summary.maxUtilization, 2), ''],
           ['water evaporated', formatNumber(summary.waterLossKgM2, 2), 'kg/m2'],
+          [
+            `hours from the end to ${formatNumber(strengthForecast.targetFcmMPa, 1)} MPa, surface / core`,
+            `${formatNumber(strengthForecast.surfaceHours, 1)} / ${formatNumber(strengthForecast.coreHours, 1)}`,
+            'h',
+          ],
         ],
       },
       {
@@ -310,6 +324,11 @@ export const simulateCommand: CommandDefinition = {
     { flags: '--hours <h>', description: 'hours to simulate from placement (default 24)' },
     { flags: '--cells <n>', description: 'cells over the depth (default 60, physics.md 1)' },
     { flags: '--profiles-at <h,h>', description: 'hours at which to report depth profiles' },
+    {
+      flags: '--target-fcm <MPa>',
+      description:
+        'target in-place compressive strength of the forecast at the end of the run, MPa (default 10)',
+    },
     {
       flags: '--plot <file>',
       description:
