@@ -33,6 +33,10 @@ export interface MeasureEntry {
   loggedBy: string;
   /** Curing compound efficiency 0..1 (its own figure; the calibration multiplies it). */
   efficiency?: number;
+  /** Fogging: relative humidity held over the surface, fraction 0..1 (default of curingMeasures.ts). */
+  relativeHumidity?: number;
+  /** Windbreak: sheltered over open wind speed, 0..1 (default of curingMeasures.ts). */
+  windFactor?: number;
   note?: string;
 }
 
@@ -68,11 +72,24 @@ export interface RunEngineOptions {
   probeSilentS?: number;
   /** Window of the recent weather mean used for persistence, s [3600, our assumption]. */
   persistenceWindowS?: number;
+  /** Late-reading tolerance: a stream that lags the newest reading by more than this no longer holds the engine back, s [300, our assumption]. */
+  lateToleranceS?: number;
+  /** Assimilate the probes [true]; false runs the prior ensemble (twin experiments, diagnostics). */
+  assimilation?: boolean;
+  /** Multiplicative covariance inflation per analysis [1.02, calibration default, our assumption]. */
+  inflationFactor?: number;
   /** Target compressive strength for timeToTargetStrengthH, MPa [70 % of fck, common practice]. */
   targetStrengthMPa?: number;
 }
 
-/** Quantile band at 5 %, 50 % and 95 %. */
+/** Quantiles of one figure over the members at one time. */
+export interface BandPoint {
+  p05: number;
+  p50: number;
+  p95: number;
+}
+
+/** Quantile band at 5 %, 50 % and 95 % (one value per time or depth). */
 export interface Band {
   p05: number[];
   p50: number[];
@@ -133,6 +150,14 @@ export interface RunState {
   evaporationKgM2h: number | null;
   inPlaceCompressiveStrengthMPa: number | null;
   timeToTargetStrengthH: number | null;
+  /** Quantiles over the members of the figures now (the scalars above are the medians). */
+  nowBands: { utilization: BandPoint; surfaceStressMPa: BandPoint; marginMPa: BandPoint } | null;
+  /** Bleed film on the surface, kg/m2 (median over members), and hours until it is gone. */
+  bleedFilmKgM2: number | null;
+  bleedFilmRemainingH: number | null;
+  /** Analyses so far and members of the ensemble. */
+  analysisCount: number;
+  memberCount: number;
   outlook: RunOutlook | null;
   profiles: RunProfiles | null;
   calibration: { name: string; mean: number; sd: number; p05: number; p95: number }[];
