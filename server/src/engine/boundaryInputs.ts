@@ -102,7 +102,11 @@ export function fillCellTemperatures(
   centresM: Float64Array,
   temperatureK: Float64Array,
 ): void {
-  const probes = [...(inputs.probeTemperatures ?? [])].sort((a, b) => a.depthM - b.depthM);
+  if (inputs.probeTemperatures === undefined || inputs.probeTemperatures.length === 0) {
+    temperatureK.fill(inputs.surfaceTemperatureK, 0, centresM.length);
+    return;
+  }
+  const probes = [...inputs.probeTemperatures].sort((a, b) => a.depthM - b.depthM);
   for (let i = 0; i < centresM.length; i += 1) {
     const depth = centresM[i] as number;
     const first = probes[0];
