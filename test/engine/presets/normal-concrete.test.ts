@@ -36,10 +36,11 @@ describe('normal-concrete preset: water lost in the first day (150 mm, hot day, 
   // the 25 kg/m2 of mix water) and drains the slab almost evenly through its depth (S about 0.5
   // at 60 mm). Why, within physics.md: the fresh saturated permeability (about 1e-14 m2, inside
   // the published range for fresh pastes and consistent with the bleed rate, see the preset)
-  // gives a hydraulic diffusivity of the order of 1e-6 m2/s in the plastic phase, so the whole
-  // 150 mm feeds the surface within an hour or two; the capillary bundle keeps the liquid path
-  // continuous down to low saturation, so the surface never dries out while the depth holds
-  // water; and pore refinement comes after the water is gone. What the model lacks is outside
+  // gives a hydraulic diffusivity of some 1e-6 to 1e-5 m2/s near saturation in the plastic
+  // phase (k / eta times dp/dtheta), so the whole 150 mm feeds the surface within an hour or
+  // so; the capillary bundle keeps the liquid path continuous down to low saturation, so the
+  // surface never dries out while the depth holds water; and pore refinement comes after the
+  // water is gone. What the model lacks is outside
   // physics.md: a loss of liquid connectivity as the pores drain (a relative permeability that
   // falls faster than the bundle's), the water hydration binds, and a skeleton that keeps
   // consolidating after air entry.
