@@ -1,23 +1,34 @@
 /**
  * Composes the server: archive, ingest, broker connection (embedded broker or a client of an
- * external one), InfluxDB forwarding when configured, and HTTP.
+ * external one), InfluxDB forwarding when configured, the run lifecycle and one live engine per
+ * open run (resumed from its last snapshot), HTTP with socket.io on the same port, and the MQTT
+ * forecast topic.
  */
-import { mkdirSync } from 'node:fs';
+import { mkdirSync, readFileSync } from 'node:fs';
 import type { Server } from 'node:http';
 import type { AddressInfo } from 'node:net';
 import { join } from 'node:path';
 import express from 'express';
 import { pino } from 'pino';
 import type { Logger } from 'pino';
+import type { IClientOptions } from 'mqtt';
+import { Server as SocketServer } from 'socket.io';
 import { apiRouter } from './api/apiRouter.ts';
 import { errorToHttp } from './api/httpError.ts';
+import { attachLiveSocket, pushState } from './api/liveSocket.ts';
 import type { ServerConfig } from './config/serverConfig.ts';
 import { Ingestor } from './ingest/ingestor.ts';
+import { createRunEngine } from './live/index.ts';
+import type { CreateRunEngine, RunEngineOptions } from './live/index.ts';
+import { startForecastSubscriber } from './liveHost/forecastSubscriber.ts';
+import type { ForecastSubscriber } from './liveHost/forecastSubscriber.ts';
+import { LiveHost } from './liveHost/liveHost.ts';
 import type { BrokerConnection } from './mqtt/brokerConnection.ts';
 import { startEmbeddedBroker } from './mqtt/embeddedBroker.ts';
 import { startMqttSubscriber } from './mqtt/mqttSubscriber.ts';
 import { Archive } from './store/archive.ts';
 import { InfluxForwarder } from './store/influxForwarder.ts';
+import { RunLifecycle } from './runs/runLifecycle.ts';
 
 /** The archive's file name inside the data folder. */
 export const ARCHIVE_FILE = 'meniscus.sqlite';
@@ -29,6 +40,9 @@ export interface RunningServer {
   archive: Archive;
   ingestor: Ingestor;
   broker: BrokerConnection;
+  lifecycle: RunLifecycle;
+  live: LiveHost;
+  io: SocketServer;
   logger: Logger;
   /** Stops taking messages and requests, flushes the forwarder, closes the archive. */
   close(): Promise<void>;
@@ -38,12 +52,35 @@ export interface RunningServer {
  * Starts everything; resolves once HTTP and the broker connection listen (an external broker
  * may still be connecting: the client keeps trying).
  */
-export async function startServer(config: ServerConfig, logger?: Logger): Promise<RunningServer> {
+export interface StartServerOptions {
+  /** The live engine factory: createRunEngine of server/src/live (tests may pass another). */
+  createEngine?: CreateRunEngine;
+  /** Options of every run's engine (RunEngineOptions defaults when absent). */
+  engineOptions?: RunEngineOptions;
+}
+
+export async function startServer(
+  config: ServerConfig,
+  logger?: Logger,
+  options: StartServerOptions = {},
+): Promise<RunningServer> {
   const log = logger ?? pino({ level: config.logLevel });
   mkdirSync(config.dataDir, { recursive: true });
   const archive = Archive.open(join(config.dataDir, ARCHIVE_FILE), {
     synchronous: config.synchronous,
   });
+  const lifecycle = new RunLifecycle(archive);
+  let io: SocketServer | null = null;
+  const live = new LiveHost(archive, lifecycle, options.createEngine ?? createRunEngine, {
+    ...(options.engineOptions === undefined ? {} : { engineOptions: options.engineOptions }),
+    snapshotEveryS: config.snapshotEveryS ?? 1800,
+    onState: (runId, state) => {
+      if (io !== null) pushState(io, runId, state);
+    },
+    onError: (runId, error) => log.error({ err: error, runId }, 'live engine failed on a run'),
+  });
+  // Before the broker: every commit from now on reaches the engines.
+  live.start();
   const ingestor = new Ingestor(archive, {
     onCommitError: (error) =>
       log.error({ err: error }, 'archive commit failed; messages not acknowledged'),
@@ -51,6 +88,7 @@ export async function startServer(config: ServerConfig, logger?: Logger): Promis
 
   let broker: BrokerConnection;
   let mqttPort: number | null = null;
+  let forecasts: ForecastSubscriber;
   if (config.mqtt.mode === 'embedded') {
     const embedded = await startEmbeddedBroker(ingestor, {
       host: config.mqtt.host,
@@ -58,6 +96,15 @@ export async function startServer(config: ServerConfig, logger?: Logger): Promis
     });
     mqttPort = embedded.port;
     broker = embedded;
+    const host =
+      config.mqtt.host === '0.0.0.0' || config.mqtt.host === '::' ? '127.0.0.1' : config.mqtt.host;
+    forecasts = startForecastSubscriber(
+      `mqtt://${host}:${embedded.port}`,
+      { clientId: `meniscus-forecast-${process.pid}` },
+      archive,
+      lifecycle,
+      (message) => log.warn(message),
+    );
   } else {
     broker = startMqttSubscriber(ingestor, {
       url: config.mqtt.url,
@@ -67,6 +114,18 @@ export async function startServer(config: ServerConfig, logger?: Logger): Promis
       ...(config.mqtt.password === undefined ? {} : { password: config.mqtt.password }),
       ...config.mqtt.tls,
     });
+    const { tls } = config.mqtt;
+    const clientOptions: IClientOptions = {
+      clientId: `${config.mqtt.clientId}-fc`,
+      ...(config.mqtt.username === undefined ? {} : { username: config.mqtt.username }),
+      ...(config.mqtt.password === undefined ? {} : { password: config.mqtt.password }),
+      ...(tls.caFile === undefined ? {} : { ca: readFileSync(tls.caFile) }),
+      ...(tls.certFile === undefined ? {} : { cert: readFileSync(tls.certFile) }),
+      ...(tls.keyFile === undefined ? {} : { key: readFileSync(tls.keyFile) }),
+    };
+    forecasts = startForecastSubscriber(config.mqtt.url, clientOptions, archive, lifecycle, (m) =>
+      log.warn(m),
+    );
   }
 
   let forwarder: InfluxForwarder | null = null;
@@ -86,7 +145,11 @@ export async function startServer(config: ServerConfig, logger?: Logger): Promis
     '/api',
     apiRouter({
       archive,
+      lifecycle,
+      live,
       health: () => ({
+        live: live.health(),
+        forecasts: { ok: true, ...forecasts.counters },
         broker: { ok: broker.state().connected, ...broker.state() },
         forwarder:
           forwarder === null
@@ -102,6 +165,8 @@ export async function startServer(config: ServerConfig, logger?: Logger): Promis
       error ? reject(error) : resolve(server),
     );
   });
+  io = new SocketServer(http, { serveClient: false });
+  attachLiveSocket(io, archive, live);
   const httpPort = (http.address() as AddressInfo).port;
   log.info(
     { httpPort, mqttPort, mqtt: broker.state().url, dataDir: config.dataDir },
@@ -114,13 +179,19 @@ export async function startServer(config: ServerConfig, logger?: Logger): Promis
     archive,
     ingestor,
     broker,
+    lifecycle,
+    live,
+    io,
     logger: log,
     async close() {
       await new Promise<void>((resolve) => {
-        http.close(() => resolve());
+        // io.close() closes the HTTP server too.
+        void io?.close(() => resolve());
         http.closeAllConnections();
       });
       await broker.close();
+      await forecasts.close();
+      live.close();
       await forwarder?.close();
       archive.close();
     },

@@ -3,7 +3,7 @@ import { ValidationError } from '../../server/src/config/formatIssues.ts';
 import { serverConfigFromEnv } from '../../server/src/config/serverConfig.ts';
 
 describe('serverConfigFromEnv()', () => {
-  it('defaults to HTTP 8080, the embedded broker on 1883, ./data, synchronous FULL, no InfluxDB', () => {
+  it('defaults to HTTP 8080, the embedded broker on 1883, ./data, synchronous FULL, no InfluxDB, snapshots every 30 min', () => {
     expect(serverConfigFromEnv({})).toEqual({
       httpPort: 8080,
       httpHost: '127.0.0.1',
@@ -12,6 +12,7 @@ describe('serverConfigFromEnv()', () => {
       synchronous: 'FULL',
       influx: null,
       logLevel: 'info',
+      snapshotEveryS: 1800,
     });
   });
 

@@ -5,11 +5,14 @@
 import express from 'express';
 import type { Request, Response, Router } from 'express';
 import { parseRunConfig } from '../config/runConfig.ts';
+import { RunLifecycle } from '../runs/runLifecycle.ts';
 import type { Archive } from '../store/archive.ts';
 import type { RunRecord, StoredReading } from '../store/types.ts';
 import { csvLine } from './csv.ts';
 import { HttpError } from './httpError.ts';
 import { parseReadingsQuery } from './readingsQuery.ts';
+import { addRunRoutes } from './runRoutes.ts';
+import type { LiveStates } from './runRoutes.ts';
 
 export interface ApiContext {
   archive: Archive;
@@ -17,12 +20,17 @@ export interface ApiContext {
   health: () => Record<string, unknown>;
   /** Clock for creation times, ms since the epoch. */
   clock?: () => number;
+  /** Run lifecycle (creation, closing, measures, forecasts); one over `archive` and `clock` by default. */
+  lifecycle?: RunLifecycle;
+  /** The live host for GET /api/runs/:id/state; without it that route answers 503. */
+  live?: LiveStates;
 }
 
 /** Builds the /api router. Bodies up to 256 KiB of JSON (our assumption: a run configuration is a few KiB). */
 export function apiRouter(context: ApiContext): Router {
   const { archive } = context;
   const clock = context.clock ?? Date.now;
+  const lifecycle = context.lifecycle ?? new RunLifecycle(archive, clock);
   const router = express.Router();
   router.use(express.json({ limit: '256kb' }));
 
@@ -54,7 +62,7 @@ export function apiRouter(context: ApiContext): Router {
       );
     }
     const config = parseRunConfig(request.body);
-    const run = archive.createRun(config, clock());
+    const run = lifecycle.create(config);
     response.status(201).location(`/api/runs/${run.id}`).json(runDetail(run, archive));
   });
 
@@ -86,6 +94,8 @@ export function apiRouter(context: ApiContext): Router {
     response.json({ runId: run.id, counts: archive.quarantineCounts(run.id), messages });
   });
 
+  addRunRoutes(router, lifecycle, context.live ?? null);
+
   router.use((_request: Request) => {
     throw new HttpError(404, 'no such API route');
   });
@@ -106,6 +116,7 @@ function runSummary(run: RunRecord) {
     site: run.site,
     name: run.config.name ?? `${run.config.element.kind} placed ${run.config.placedAt}`,
     placedAt: run.config.placedAt,
+    status: run.closedAtMs === null ? 'open' : 'closed',
     createdAt: new Date(run.createdAtMs).toISOString(),
     closedAt: run.closedAtMs === null ? null : new Date(run.closedAtMs).toISOString(),
   };

@@ -1,5 +1,6 @@
 import type { ErrorRequestHandler } from 'express';
 import { ValidationError } from '../config/formatIssues.ts';
+import { RunError } from '../runs/runErrors.ts';
 
 /** An error with an HTTP status and a message safe to show to the client. */
 export class HttpError extends Error {
@@ -18,7 +19,7 @@ export interface ErrorLogger {
 
 /**
  * The one place errors become HTTP answers: ValidationError -> 400 with its issues, HttpError ->
- * its status and message, a malformed or oversize JSON body -> 400/413, anything else is logged
+ * its status and message (so does a RunError: 404 unknown run, 409 change to a closed run), a malformed or oversize JSON body -> 400/413, anything else is logged
  * in full and answered with a plain 500 that shows no internals.
  */
 export function errorToHttp(logger: ErrorLogger): ErrorRequestHandler {
@@ -31,7 +32,7 @@ export function errorToHttp(logger: ErrorLogger): ErrorRequestHandler {
       response.status(400).json({ error: error.message, issues: error.issues });
       return;
     }
-    if (error instanceof HttpError) {
+    if (error instanceof HttpError || error instanceof RunError) {
       response.status(error.status).json({ error: error.message });
       return;
     }

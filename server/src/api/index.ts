@@ -2,3 +2,5 @@ export * from './apiRouter.ts';
 export * from './csv.ts';
 export * from './httpError.ts';
 export * from './readingsQuery.ts';
+export * from './runRoutes.ts';
+export * from './liveSocket.ts';

@@ -17,6 +17,7 @@
  * | MENISCUS_SQLITE_SYNCHRONOUS | FULL (durable on power loss) | FULL or NORMAL |
  * | MENISCUS_INFLUX_URL / _TOKEN / _ORG / _BUCKET | unset: forwarding off | InfluxDB v2 write |
  * | MENISCUS_LOG_LEVEL | info | pino level |
+ * | MENISCUS_SNAPSHOT_EVERY_S | 1800 (our assumption: at most 30 min of event time to replay) | event time between snapshots of a run's live engine |
  */
 import { z } from 'zod';
 import { ValidationError, formatIssues } from './formatIssues.ts';
@@ -64,6 +65,11 @@ const envSchema = z.object({
   MENISCUS_LOG_LEVEL: z
     .enum(['fatal', 'error', 'warn', 'info', 'debug', 'trace', 'silent'])
     .default('info'),
+  MENISCUS_SNAPSHOT_EVERY_S: z.coerce
+    .number({ error: 'must be a number of seconds' })
+    .min(60, { error: 'must be between 60 and 86400 s' })
+    .max(86_400, { error: 'must be between 60 and 86400 s' })
+    .default(1800),
 });
 
 /** TLS material for an external broker, as PEM file paths. */
@@ -100,6 +106,8 @@ export interface ServerConfig {
   /** InfluxDB forwarding; null when MENISCUS_INFLUX_URL is unset. */
   influx: InfluxSettings | null;
   logLevel: string;
+  /** Event time between snapshots of each run's live engine, s (1800 when absent). */
+  snapshotEveryS?: number;
 }
 
 /**
@@ -155,5 +163,6 @@ export function serverConfigFromEnv(env: Record<string, string | undefined>): Se
             bucket: e.MENISCUS_INFLUX_BUCKET ?? '',
           },
     logLevel: e.MENISCUS_LOG_LEVEL,
+    snapshotEveryS: e.MENISCUS_SNAPSHOT_EVERY_S,
   };
 }

@@ -108,4 +108,16 @@ export const MIGRATIONS: readonly string[] = [
   CREATE TRIGGER raw_messages_append_only_d BEFORE DELETE ON raw_messages
     BEGIN SELECT RAISE(ABORT, 'raw messages are append-only'); END;
   `,
+  // 2: snapshots of each run's live engine (not evidence: superseded ones may be deleted).
+  `
+  CREATE TABLE snapshots (
+    id INTEGER PRIMARY KEY,
+    run_id TEXT NOT NULL REFERENCES runs(id),
+    event_time_ms INTEGER,
+    last_reading_id INTEGER NOT NULL,
+    taken_at_ms INTEGER NOT NULL,
+    snapshot_json TEXT NOT NULL
+  ) STRICT;
+  CREATE INDEX snapshots_run ON snapshots(run_id, id);
+  `,
 ];

@@ -9,6 +9,7 @@ import type Database from 'better-sqlite3';
 import type { RunConfig } from '../config/runConfig.ts';
 import { placedAtMs } from '../config/runConfig.ts';
 import { QUANTITIES, sensorsOfRun } from '../ingest/quantities.ts';
+import { parseDeviceTopic } from '../ingest/topics.ts';
 import type { Quantity } from '../ingest/quantities.ts';
 import { ArchiveQueries } from './archiveQueries.ts';
 import { openDatabase } from './openDatabase.ts';
@@ -21,6 +22,9 @@ import type {
   SensorBinding,
 } from './types.ts';
 
+/** Snapshots kept per run; older ones are deleted when a new one is saved (our assumption). */
+export const SNAPSHOTS_KEPT = 3;
+
 /** Raw bytes kept of a quarantined message at most (the oversize limit): 64 KiB (our assumption). */
 export const QUARANTINE_BYTES_KEPT = 64 * 1024;
 
@@ -31,6 +35,7 @@ export class Archive extends ArchiveQueries {
   readonly #nextSeq = new Map<string, number>();
   #bindings: Map<string, DeviceBinding[]> | null = null;
   readonly #statements;
+  readonly #commitListeners: ((runIds: ReadonlySet<string>) => void)[] = [];
 
   constructor(db: Database.Database) {
     super(db);
@@ -55,6 +60,11 @@ export class Archive extends ArchiveQueries {
       ),
       insertEvent: db.prepare(
         'INSERT INTO events (run_id, at_ms, kind, detail_json) VALUES (?, ?, ?, ?)',
+      ),
+      closedRunOf: db.prepare(
+        `SELECT r.id, r.closed_at_ms AS closedAtMs FROM runs r JOIN devices d ON d.run_id = r.id
+          WHERE r.site = ? AND d.name = ? AND r.closed_at_ms IS NOT NULL
+          ORDER BY r.closed_at_ms DESC, r.id LIMIT 1`,
       ),
     };
   }
@@ -137,12 +147,55 @@ export class Archive extends ArchiveQueries {
    * @throws whatever SQLite throws; then nothing of the batch is stored
    */
   commit(items: readonly CommitItem[]): CommitOutcome[] {
+    let outcomes: CommitOutcome[];
     try {
-      return this.db.transaction(() => items.map((item) => this.#commitItem(item)))();
+      outcomes = this.db.transaction(() => items.map((item) => this.#commitItem(item)))();
     } catch (error) {
       this.#nextSeq.clear();
       throw error;
     }
+    const runIds = new Set<string>();
+    items.forEach((item, index) => {
+      if (item.kind === 'accepted' && (outcomes[index]?.stored ?? 0) > 0) runIds.add(item.runId);
+    });
+    if (runIds.size > 0) for (const listener of this.#commitListeners) listener(runIds);
+    return outcomes;
+  }
+
+  /**
+   * Calls `listener` after every commit that stored new readings, with the runs they belong to.
+   * It runs synchronously before commit() returns (before the broker's PUBACK): keep it short
+   * and defer real work (the live host schedules its engines with setImmediate).
+   */
+  onCommit(listener: (runIds: ReadonlySet<string>) => void): void {
+    this.#commitListeners.push(listener);
+  }
+
+  /**
+   * Saves an engine snapshot of a run and deletes all but the newest SNAPSHOTS_KEPT of that
+   * run's snapshots, in one transaction. Snapshots are derived data, not part of the evidence.
+   */
+  saveSnapshot(
+    runId: string,
+    eventTimeMs: number | null,
+    lastReadingId: number,
+    snapshotJson: string,
+    takenAtMs: number,
+  ): void {
+    this.db.transaction(() => {
+      this.db
+        .prepare(
+          `INSERT INTO snapshots (run_id, event_time_ms, last_reading_id, taken_at_ms, snapshot_json)
+           VALUES (?, ?, ?, ?, ?)`,
+        )
+        .run(runId, eventTimeMs, lastReadingId, takenAtMs, snapshotJson);
+      this.db
+        .prepare(
+          `DELETE FROM snapshots WHERE run_id = ? AND id NOT IN
+             (SELECT id FROM snapshots WHERE run_id = ? ORDER BY id DESC LIMIT ?)`,
+        )
+        .run(runId, runId, SNAPSHOTS_KEPT);
+    })();
   }
 
   /**
@@ -188,6 +241,24 @@ export class Archive extends ArchiveQueries {
   #commitItem(item: CommitItem): CommitOutcome {
     const s = this.#statements;
     if (item.kind === 'quarantine') {
+      const closed =
+        item.reason === 'unknown-device' && item.runId === null
+          ? this.#closedRunOf(item.topic)
+          : null;
+      if (closed !== null) {
+        // Kept with the closed run for people to see, outside its record order: that order is
+        // frozen when the run closes (a closed run is read-only).
+        this.#quarantine(
+          null,
+          'run-closed',
+          closed.detail,
+          item.topic,
+          item.receivedAtMs,
+          item.bytes,
+          closed.runId,
+        );
+        return { stored: 0, duplicates: 0, quarantined: 'run-closed' };
+      }
       this.#quarantine(
         item.runId,
         item.reason,
@@ -238,11 +309,12 @@ export class Archive extends ArchiveQueries {
     topic: string,
     receivedAtMs: number,
     bytes: Uint8Array,
+    unrecordedRunId: string | null = null,
   ): void {
     const kept = bytes.subarray(0, QUARANTINE_BYTES_KEPT);
     const rowId = Number(
       this.#statements.insertQuarantine.run(
-        runId,
+        runId ?? unrecordedRunId,
         reason,
         detail,
         topic,
@@ -253,6 +325,19 @@ export class Archive extends ArchiveQueries {
       ).lastInsertRowid,
     );
     if (runId !== null) this.#append(runId, 'quarantine', rowId);
+  }
+
+  /** The most recently closed run listing the topic's device, with a detail line; or null. */
+  #closedRunOf(topic: string): { runId: string; detail: string } | null {
+    const parts = parseDeviceTopic(topic);
+    if (parts === null) return null;
+    const row = this.#statements.closedRunOf.get(parts.site, parts.device) as
+      { id: string; closedAtMs: number } | undefined;
+    if (row === undefined) return null;
+    return {
+      runId: row.id,
+      detail: `device ${parts.device} on site ${parts.site} is in no open run: its run ${row.id} was closed at ${new Date(row.closedAtMs).toISOString()} and a closed run takes no readings`,
+    };
   }
 
   #append(runId: string, kind: RecordKind, rowId: number): void {

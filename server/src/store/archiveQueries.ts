@@ -1,7 +1,13 @@
 /** The read side of the archive: runs, readings, quarantine, counts, the outbox cursor. */
 import type Database from 'better-sqlite3';
 import type { RunConfig } from '../config/runConfig.ts';
-import type { QuarantinedMessage, RunRecord, StoredReading } from './types.ts';
+import type {
+  QuarantinedMessage,
+  RunEventRow,
+  RunRecord,
+  SnapshotRow,
+  StoredReading,
+} from './types.ts';
 
 export interface ReadingFilter {
   /** Only this sensor name (any device), or `device/sensor`. */
@@ -215,6 +221,48 @@ export class ArchiveQueries {
         'SELECT seq, kind, row_id AS rowId FROM records WHERE run_id = ? AND seq >= ? ORDER BY seq',
       )
       .all(runId, fromSeq) as { seq: number; kind: string; rowId: number }[];
+  }
+
+  /** Runs not closed, oldest first (what the live host resumes at start). */
+  openRuns(): RunRecord[] {
+    const rows = this.db
+      .prepare('SELECT * FROM runs WHERE closed_at_ms IS NULL ORDER BY created_at_ms, id')
+      .all() as RunRow[];
+    return rows.map(toRun);
+  }
+
+  /** A run's readings stored after reading id `afterId`, in storage order (what an engine has not seen). */
+  runReadingsAfter(runId: string, afterId: number, limit = 100_000): StoredReading[] {
+    return this.db
+      .prepare(`SELECT ${READING_COLUMNS} WHERE rd.run_id = ? AND rd.id > ? ORDER BY rd.id LIMIT ?`)
+      .all(runId, afterId, limit) as StoredReading[];
+  }
+
+  /** A run's events of the given kinds (all kinds when empty), in record order. */
+  events(runId: string, kinds: readonly string[] = []): RunEventRow[] {
+    const filter = kinds.length === 0 ? '' : `AND kind IN (${kinds.map(() => '?').join(', ')})`;
+    const rows = this.db
+      .prepare(
+        `SELECT id, at_ms AS atMs, kind, detail_json AS detailJson FROM events
+          WHERE run_id = ? ${filter} ORDER BY id`,
+      )
+      .all(runId, ...kinds) as { id: number; atMs: number; kind: string; detailJson: string }[];
+    return rows.map(({ detailJson, ...row }) => ({
+      ...row,
+      detail: JSON.parse(detailJson) as unknown,
+    }));
+  }
+
+  /** The run's latest engine snapshot, or null. */
+  latestSnapshot(runId: string): SnapshotRow | null {
+    const row = this.db
+      .prepare(
+        `SELECT id, run_id AS runId, event_time_ms AS eventTimeMs, last_reading_id AS lastReadingId,
+                taken_at_ms AS takenAtMs, snapshot_json AS snapshotJson
+           FROM snapshots WHERE run_id = ? ORDER BY id DESC LIMIT 1`,
+      )
+      .get(runId) as SnapshotRow | undefined;
+    return row ?? null;
   }
 
   /** `PRAGMA integrity_check`: `['ok']` when the file is sound. */

@@ -95,3 +95,23 @@ export interface QuarantinedMessage {
   bytes: Buffer;
   sha256: string;
 }
+
+/** One row of a run's `events` table, its detail parsed from JSON. */
+export interface RunEventRow {
+  id: number;
+  atMs: number;
+  kind: string;
+  detail: unknown;
+}
+
+/** A stored engine snapshot: the engine's JSON and the last reading id it had been fed. */
+export interface SnapshotRow {
+  id: number;
+  runId: string;
+  /** The engine's event time when taken, ms (null before its first reading). */
+  eventTimeMs: number | null;
+  /** Id of the last of the run's readings fed to the engine before the snapshot. */
+  lastReadingId: number;
+  takenAtMs: number;
+  snapshotJson: string;
+}

@@ -1,0 +1,3 @@
+export * from './forecastSubscriber.ts';
+export * from './liveHost.ts';
+export * from './liveReading.ts';

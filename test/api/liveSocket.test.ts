@@ -1,0 +1,88 @@
+import { afterEach, beforeEach, describe, expect, it } from 'vitest';
+import type { RunState } from '../../server/src/live/types.ts';
+import { EXAMPLE_PLACED_AT_MS, exampleRunInput } from '../helpers/exampleRun.ts';
+import { connectSocketIo } from '../helpers/socketIoClient.ts';
+import type { TestSocket } from '../helpers/socketIoClient.ts';
+import { startLiveApiRig } from './_liveApiRig.ts';
+import type { LiveApiRig } from './_liveApiRig.ts';
+
+let rig: LiveApiRig;
+let runId: string;
+const sockets: TestSocket[] = [];
+
+beforeEach(async () => {
+  rig = await startLiveApiRig();
+  const response = await fetch(`${rig.base}/api/runs`, {
+    method: 'POST',
+    headers: { 'content-type': 'application/json' },
+    body: JSON.stringify(exampleRunInput()),
+  });
+  runId = String(((await response.json()) as { id: string }).id);
+});
+afterEach(async () => {
+  for (const socket of sockets.splice(0)) socket.close();
+  await rig.close();
+});
+
+const publish = (minute: number) =>
+  rig.ingestor.data(
+    'meniscus/harbour-deck/probe-a/data',
+    Buffer.from(
+      JSON.stringify([
+        { bn: 'probe-a/', bt: EXAMPLE_PLACED_AT_MS / 1000 + minute * 60, n: 'rh-10', v: 97 },
+      ]),
+    ),
+  );
+
+describe('socket.io live push', () => {
+  it('join answers with the state now; each update pushes the same state GET /state returns', async () => {
+    const socket = await connectSocketIo(rig.base);
+    sockets.push(socket);
+    const ack = (await socket.emitWithAck('join', runId)) as { ok: boolean; state: RunState };
+    expect(ack.ok).toBe(true);
+    expect(ack.state.eventTimeMs).toBeNull();
+    const pushed = socket.next('state');
+    await publish(10);
+    const state = (await pushed) as RunState;
+    expect(state.eventTimeMs).toBe(EXAMPLE_PLACED_AT_MS + 600_000);
+    const rest = await (await fetch(`${rig.base}/api/runs/${runId}/state`)).json();
+    expect(rest).toEqual(state);
+  });
+
+  it('?run=<id> at the handshake joins the room and sends the state at once', async () => {
+    const socket = await connectSocketIo(rig.base, { run: runId });
+    sockets.push(socket);
+    const first = (await socket.next('state')) as RunState;
+    expect(first.runId).toBe(runId);
+  });
+
+  it('a join for an unknown run is refused, and a client in no room gets nothing', async () => {
+    const stranger = await connectSocketIo(rig.base);
+    sockets.push(stranger);
+    expect(await stranger.emitWithAck('join', 'nope')).toEqual({
+      ok: false,
+      error: 'run "nope" does not exist',
+    });
+    const member = await connectSocketIo(rig.base, { run: runId });
+    sockets.push(member);
+    await member.next('state');
+    const pushed = member.next('state');
+    await publish(5);
+    await pushed;
+    expect(stranger.received('state')).toEqual([]);
+  });
+
+  it('after leave, no more states arrive', async () => {
+    const socket = await connectSocketIo(rig.base);
+    sockets.push(socket);
+    await socket.emitWithAck('join', runId);
+    socket.emit('leave', runId);
+    const watcher = await connectSocketIo(rig.base, { run: runId });
+    sockets.push(watcher);
+    await watcher.next('state');
+    const pushed = watcher.next('state');
+    await publish(5);
+    await pushed;
+    expect(socket.received('state')).toEqual([]);
+  });
+});

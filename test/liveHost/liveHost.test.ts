@@ -1,0 +1,174 @@
+import { mkdtempSync, rmSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { afterEach, beforeEach, describe, expect, it } from 'vitest';
+import { parseRunConfig } from '../../server/src/config/runConfig.ts';
+import { Ingestor } from '../../server/src/ingest/ingestor.ts';
+import type { RunState } from '../../server/src/live/types.ts';
+import { LiveHost } from '../../server/src/liveHost/liveHost.ts';
+import type { LiveHostOptions } from '../../server/src/liveHost/liveHost.ts';
+import { RunLifecycle } from '../../server/src/runs/runLifecycle.ts';
+import { Archive } from '../../server/src/store/archive.ts';
+import { EXAMPLE_PLACED_AT_MS, exampleRunInput } from '../helpers/exampleRun.ts';
+import { createFakeRunEngine, madeEngines } from './_fakeRunEngine.ts';
+
+const MINUTE_MS = 60_000;
+let dir: string;
+const opened: Archive[] = [];
+
+beforeEach(() => {
+  dir = mkdtempSync(join(tmpdir(), 'meniscus-livehost-'));
+  madeEngines.length = 0;
+});
+afterEach(() => {
+  for (const archive of opened.splice(0)) archive.close();
+  rmSync(dir, { recursive: true, force: true });
+});
+
+interface Rig {
+  archive: Archive;
+  lifecycle: RunLifecycle;
+  host: LiveHost;
+  ingestor: Ingestor;
+  states: RunState[];
+}
+
+function rig(file: string, options: LiveHostOptions = {}): Rig {
+  const archive = Archive.open(join(dir, file));
+  opened.push(archive);
+  const lifecycle = new RunLifecycle(archive, () => EXAMPLE_PLACED_AT_MS);
+  const states: RunState[] = [];
+  const host = new LiveHost(archive, lifecycle, createFakeRunEngine, {
+    snapshotEveryS: 1800,
+    onState: (_runId, state) => states.push(state),
+    onError: (_runId, error) => {
+      throw error;
+    },
+    ...options,
+  });
+  host.start();
+  const ingestor = new Ingestor(archive, { clock: () => EXAMPLE_PLACED_AT_MS + 24 * 3_600_000 });
+  return { archive, lifecycle, host, ingestor, states };
+}
+
+/** Minute `minute` after placement: probe-a rh-10 and the weather station's wind. */
+async function publishMinute(r: Rig, minute: number): Promise<void> {
+  const t = (EXAMPLE_PLACED_AT_MS + minute * MINUTE_MS) / 1000;
+  await Promise.all([
+    r.ingestor.data(
+      'meniscus/harbour-deck/probe-a/data',
+      Buffer.from(JSON.stringify([{ bn: 'probe-a/', bt: t, n: 'rh-10', v: 99 - minute / 100 }])),
+    ),
+    r.ingestor.data(
+      'meniscus/harbour-deck/mast-1/data',
+      Buffer.from(JSON.stringify([{ bn: 'mast-1/', bt: t, n: 'wind', v: 2 + (minute % 7) / 10 }])),
+    ),
+  ]);
+}
+
+async function publishMinutes(r: Rig, from: number, to: number, step = 5): Promise<void> {
+  for (let minute = from; minute < to; minute += step) await publishMinute(r, minute);
+}
+
+const createRun = (r: Rig) => r.lifecycle.create(parseRunConfig(exampleRunInput()), 'run-1');
+const calibration = (state: RunState | null, name: string) =>
+  state?.calibration.find((c) => c.name === name)?.mean;
+
+describe('LiveHost', () => {
+  it('feeds committed readings to the run engine after the commit, not before the acknowledgement', async () => {
+    const r = rig('a.sqlite');
+    createRun(r);
+    await r.host.idle();
+    await publishMinute(r, 0);
+    expect(r.states).toHaveLength(0);
+    await r.host.idle();
+    expect(r.states).toHaveLength(1);
+    expect(calibration(r.states[0] ?? null, 'consumed')).toBe(2);
+    expect(r.host.state('run-1')?.eventTimeMs).toBe(EXAMPLE_PLACED_AT_MS);
+  });
+
+  it('takes a snapshot each time the engine has moved on by the cadence in event time', async () => {
+    const r = rig('a.sqlite', { snapshotEveryS: 1800 });
+    createRun(r);
+    await publishMinutes(r, 0, 125);
+    await r.host.idle();
+    // First state at minute 0 snapshots; then minutes 30, 60, 90, 120.
+    expect(r.host.counters.snapshots).toBe(5);
+    expect(r.archive.latestSnapshot('run-1')?.eventTimeMs).toBe(
+      EXAMPLE_PLACED_AT_MS + 120 * MINUTE_MS,
+    );
+  });
+
+  it('after a crash resumes from the last snapshot, replays the readings since, and ends as an uninterrupted twin', async () => {
+    const crashed = rig('crashed.sqlite');
+    createRun(crashed);
+    await publishMinutes(crashed, 0, 100);
+    await crashed.host.idle();
+    const snapshotAt = crashed.archive.latestSnapshot('run-1');
+    expect(snapshotAt?.eventTimeMs).toBe(EXAMPLE_PLACED_AT_MS + 90 * MINUTE_MS);
+    // The crash: no close(), no final snapshot; the archive file is all that is left.
+    crashed.archive.close();
+
+    const restarted = rig('crashed.sqlite');
+    await restarted.host.idle();
+    expect(madeEngines.at(-1)).toEqual({ runId: 'run-1', resumed: true });
+    await publishMinutes(restarted, 100, 150);
+    await restarted.host.idle();
+
+    const twin = rig('twin.sqlite');
+    createRun(twin);
+    await publishMinutes(twin, 0, 150);
+    await twin.host.idle();
+
+    const twinState = twin.host.state('run-1');
+    expect(calibration(twinState, 'consumed')).toBe(60);
+    expect(restarted.host.state('run-1')).toEqual(twinState);
+  });
+
+  it('tells the engine the measure log and the forecast, also after a restart', async () => {
+    const r = rig('a.sqlite');
+    createRun(r);
+    r.lifecycle.startMeasure('run-1', {
+      kind: 'wet-covering',
+      startMs: EXAMPLE_PLACED_AT_MS,
+      endMs: null,
+      loggedBy: 'crew lead',
+    });
+    r.lifecycle.setForecast(
+      'run-1',
+      [{ timeMs: EXAMPLE_PLACED_AT_MS + 3_600_000, windSpeedMs: 5 }],
+      'api',
+    );
+    expect(calibration(r.host.state('run-1'), 'measures')).toBe(1);
+    expect(calibration(r.host.state('run-1'), 'forecastPoints')).toBe(1);
+    r.archive.close();
+    const again = rig('a.sqlite');
+    expect(calibration(again.host.state('run-1'), 'measures')).toBe(1);
+    expect(calibration(again.host.state('run-1'), 'forecastPoints')).toBe(1);
+  });
+
+  it('a closed run keeps its last state, also when replayed after a restart', async () => {
+    const r = rig('a.sqlite');
+    createRun(r);
+    await publishMinutes(r, 0, 40);
+    await r.host.idle();
+    r.lifecycle.close('run-1', null, null);
+    const final = r.host.state('run-1');
+    expect(calibration(final, 'consumed')).toBe(16);
+    expect(r.host.health().runs).toBe(0);
+    r.archive.close();
+    const again = rig('a.sqlite');
+    expect(again.host.health().runs).toBe(0);
+    expect(again.host.state('run-1')).toEqual(final);
+    expect(again.host.state('nope')).toBeNull();
+  });
+
+  it('close() snapshots every open engine so a clean restart replays nothing', async () => {
+    const r = rig('a.sqlite');
+    createRun(r);
+    await publishMinutes(r, 0, 20);
+    r.host.close();
+    const lastId = r.archive.runReadingsAfter('run-1', 0).at(-1)?.id;
+    expect(r.archive.latestSnapshot('run-1')?.lastReadingId).toBe(lastId);
+  });
+});

@@ -1,0 +1,107 @@
+import { describe, expect, it } from 'vitest';
+import { ValidationError } from '../../server/src/config/formatIssues.ts';
+import { parseMeasureEnd, parseMeasureStart } from '../../server/src/runs/measureInput.ts';
+
+const NOW_MS = Date.parse('2026-06-14T14:00:00+02:00');
+
+function issuesOf(action: () => unknown): readonly string[] {
+  try {
+    action();
+  } catch (error) {
+    if (error instanceof ValidationError) return error.issues;
+    throw error;
+  }
+  throw new Error('expected a ValidationError');
+}
+
+describe('parseMeasureStart()', () => {
+  it('defaults the start to now and the end to still applied', () => {
+    expect(parseMeasureStart({ kind: 'ponding', loggedBy: 'crew lead' }, NOW_MS)).toEqual({
+      kind: 'ponding',
+      startMs: NOW_MS,
+      endMs: null,
+      loggedBy: 'crew lead',
+    });
+  });
+
+  it('takes a measure logged after the fact with its end, efficiency and note', () => {
+    const parsed = parseMeasureStart(
+      {
+        kind: 'curing-compound',
+        startAt: '2026-06-14T12:00:00+02:00',
+        endAt: '2026-06-14T13:00:00Z',
+        loggedBy: 'A. Site',
+        efficiency: 0.8,
+        note: 'sprayed by hand',
+      },
+      NOW_MS,
+    );
+    expect(parsed).toEqual({
+      kind: 'curing-compound',
+      startMs: Date.parse('2026-06-14T10:00:00Z'),
+      endMs: Date.parse('2026-06-14T13:00:00Z'),
+      loggedBy: 'A. Site',
+      efficiency: 0.8,
+      note: 'sprayed by hand',
+    });
+  });
+
+  it.each([
+    [
+      { loggedBy: 'x' },
+      'kind must be one of wet-covering, ponding, curing-compound, fogging, windbreak: got nothing',
+    ],
+    [
+      { kind: 'tarp', loggedBy: 'x' },
+      'kind must be one of wet-covering, ponding, curing-compound, fogging, windbreak: got "tarp"',
+    ],
+    [{ kind: 'ponding' }, 'loggedBy is required: got nothing'],
+    [{ kind: 'ponding', loggedBy: '  ' }, 'loggedBy must not be empty: got "  "'],
+    [
+      { kind: 'ponding', loggedBy: 'x', startAt: '2026-06-14T12:00:00' },
+      'startAt must be an ISO 8601 date and time with an offset, e.g. 2026-06-14T13:40:00+02:00: got "2026-06-14T12:00:00"',
+    ],
+    [
+      { kind: 'curing-compound', loggedBy: 'x', efficiency: 1.5 },
+      'efficiency must be at most 1: got 1.5',
+    ],
+    [
+      { kind: 'ponding', loggedBy: 'x', efficiency: 0.5 },
+      'efficiency applies to curing-compound only: got it for ponding',
+    ],
+    [
+      {
+        kind: 'ponding',
+        loggedBy: 'x',
+        startAt: '2026-06-14T12:00:00Z',
+        endAt: '2026-06-14T11:00:00Z',
+      },
+      'endAt must not be before startAt (2026-06-14T12:00:00.000Z): got 2026-06-14T11:00:00Z',
+    ],
+    [
+      { kind: 'ponding', loggedBy: 'x', colour: 'red' },
+      'configuration has unknown field(s) colour',
+    ],
+  ])('rejects %j naming the field', (body, issue) => {
+    expect(issuesOf(() => parseMeasureStart(body, NOW_MS))).toContain(issue);
+  });
+});
+
+describe('parseMeasureEnd()', () => {
+  it('defaults the end to now', () => {
+    expect(parseMeasureEnd({ endedBy: 'foreman' }, NOW_MS)).toEqual({
+      endMs: NOW_MS,
+      endedBy: 'foreman',
+    });
+  });
+
+  it.each([
+    [{}, 'endedBy is required: got nothing'],
+    [
+      { endedBy: 'x', endAt: 'soon' },
+      'endAt must be an ISO 8601 date and time with an offset, e.g. 2026-06-14T13:40:00+02:00: got "soon"',
+    ],
+  ])('rejects %j naming the field', (body, issue) => {
+    expect(issuesOf(() => parseMeasureEnd(body, NOW_MS))).toContain(issue);
+  });
+});
