@@ -42,19 +42,22 @@ export function stateVector(state: ElementState): Float64Array {
 }
 
 /**
- * Writes an analysed member back into its element state (in place): pressures from the suctions,
- * the bleed film (floored at 0 kg/m2), and the element parameters. Non-finite entries keep the
+ * Writes an analysed member back into its element state (in place): pressures from the suctions
+ * and the bleed film (floored at 0 kg/m2) unless `updateState` is false (parameters only: the
+ * state stays the member's own model run), and the element parameters. Non-finite entries keep the
  * state's value.
  */
-export function applyAnalysis(member: LiveMember): void {
+export function applyAnalysis(member: LiveMember, updateState = true): void {
   const state = member.carried;
   const pressures = state.transport.pressurePa;
-  for (let i = 0; i < pressures.length; i += 1) {
-    const suction = member.state[i] as number;
-    if (Number.isFinite(suction)) pressures[i] = -suction;
+  if (updateState) {
+    for (let i = 0; i < pressures.length; i += 1) {
+      const suction = member.state[i] as number;
+      if (Number.isFinite(suction)) pressures[i] = -suction;
+    }
+    const film = member.state[pressures.length] as number;
+    if (Number.isFinite(film)) state.bleedFilmKgM2 = Math.max(0, film);
   }
-  const film = member.state[pressures.length] as number;
-  if (Number.isFinite(film)) state.bleedFilmKgM2 = Math.max(0, film);
   const parameters = member.parameters;
   const permeability = parameters[PARAMETER_INDEX.permeabilityMultiplier] as number;
   const exposure = parameters[PARAMETER_INDEX.exposureMultiplier] as number;

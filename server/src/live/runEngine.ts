@@ -52,8 +52,16 @@ import { windowInputs } from './windowInputs.ts';
 import type { InputSources } from './windowInputs.ts';
 
 /** Options with their defaults filled in. */
-export type ResolvedOptions = Required<Omit<RunEngineOptions, 'targetStrengthMPa'>> & {
+export type ResolvedOptions = Required<
+  Omit<
+    RunEngineOptions,
+    'targetStrengthMPa' | 'observationErrorSdPercent' | 'localisationHalfWidthM' | 'rtpsAlpha'
+  >
+> & {
   targetStrengthMPa: number | null;
+  observationErrorSdPercent: number | null;
+  localisationHalfWidthM: number | null;
+  rtpsAlpha: number | null;
 };
 
 /** Defaults of RunEngineOptions (origins in types.ts). */
@@ -73,6 +81,16 @@ export function resolveOptions(runId: string, options: RunEngineOptions): Resolv
     assimilation: options.assimilation ?? true,
     inflationFactor: options.inflationFactor ?? 1.02,
     targetStrengthMPa: options.targetStrengthMPa ?? null,
+    // 1 %RH: the random part of a reading once the bias parameters take up the offset (sensor
+    // noise, resolution, representativeness of one point); our assumption, chosen in the twin
+    // experiment of test/live/twinExperiment.test.ts against the 2-4 %RH accuracy class.
+    observationErrorSdPercent:
+      options.observationErrorSdPercent === undefined ? 1 : options.observationErrorSdPercent,
+    localisationHalfWidthM: options.localisationHalfWidthM ?? null,
+    // RTPS 0.7 (Whitaker and Hamill 2012 give 0.5 to 0.9): multiplicative 1.02 let the
+    // parameters' spread collapse in the twin experiment; our choice.
+    rtpsAlpha: options.rtpsAlpha === undefined ? 0.7 : options.rtpsAlpha,
+    analysisUpdates: options.analysisUpdates ?? 'state-and-parameters',
   };
 }
 
@@ -292,15 +310,30 @@ export function createRunEngine(
         observations.push({
           id: role.key,
           value,
-          errorSd: relativeHumidityErrorSd(value),
+          errorSd:
+            opts.observationErrorSdPercent === null
+              ? relativeHumidityErrorSd(value)
+              : opts.observationErrorSdPercent / 100,
           depthM: role.domainDepthM,
         });
       }
       if (opts.assimilation && observations.length > 0) {
         const analysed = assimilate(ensemble, observations, operator, specs, layout, {
-          inflation: { kind: 'multiplicative', factor: opts.inflationFactor },
+          inflation:
+            opts.rtpsAlpha === null
+              ? { kind: 'multiplicative', factor: opts.inflationFactor }
+              : { kind: 'relaxation-to-prior-spread', alpha: opts.rtpsAlpha },
+          method:
+            opts.localisationHalfWidthM === null
+              ? { kind: 'etkf' }
+              : {
+                  kind: 'serial-ensrf',
+                  localisation: { halfWidthM: opts.localisationHalfWidthM },
+                },
         }).ensemble;
-        for (const member of analysed.members) applyAnalysis(member);
+        for (const member of analysed.members) {
+          applyAnalysis(member, opts.analysisUpdates === 'state-and-parameters');
+        }
         ensemble = analysed;
       }
       const member0 = ensemble.members[0];

@@ -78,6 +78,22 @@ export interface RunEngineOptions {
   assimilation?: boolean;
   /** Multiplicative covariance inflation per analysis [1.02, calibration default, our assumption]. */
   inflationFactor?: number;
+  /**
+   * Random error of one probe humidity reading (one sigma), %RH, once the per-probe bias is
+   * estimated [1, our assumption; null: the accuracy class of relativeHumidityErrorSd, 2 %RH
+   * widening to 4 %RH at saturation]. The class figure is the sensor's accuracy, most of which is a fixed offset
+   * that the bias parameters take up; see runEngine.ts for the default chosen.
+   */
+  observationErrorSdPercent?: number | null;
+  /** Gaspari-Cohn half-width of the serial EnSRF's localisation in depth, m [null: ETKF, none]. */
+  localisationHalfWidthM?: number | null;
+  /** Relaxation to prior spread alpha (Whitaker and Hamill 2012) [0.7, our choice]; null: multiplicative inflation by inflationFactor. */
+  rtpsAlpha?: number | null;
+  /**
+   * What an analysis updates: 'state-and-parameters' (cell suctions, bleed film and parameters)
+   * or 'parameters' (each member's state stays its own model run) ['state-and-parameters'].
+   */
+  analysisUpdates?: 'state-and-parameters' | 'parameters';
   /** Target compressive strength for timeToTargetStrengthH, MPa [70 % of fck, common practice]. */
   targetStrengthMPa?: number;
 }

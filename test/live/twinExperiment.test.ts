@@ -1,0 +1,129 @@
+/**
+ * Twin experiment of physics.md 8 and the early warning of physics.md 9, offline: the readings
+ * come from the simulators' hidden truth of level3-topping (the engine on a 120-cell grid with
+ * hidden parameters permeability x1.3, exposure x1.1, bleed film 0.7 kg/m2; its own thermal
+ * field) through their weather station and probe strings (noise, bias, quantisation, dropouts,
+ * drifting clocks, a stuck sensor, a silent probe), see twinReadings.ts. The engine runs at
+ * 40 cells with 16 members (defaults 60 and 32) to keep the suite fast; the calibrated engine is
+ * compared with the same ensemble run without assimilation (the prior).
+ *
+ * The truth reports utilization and margin, not the stress: its surface stress is recovered as
+ * fct - margin with fct = margin / (1 - U) from the samples where |1 - U| > 0.3 (well
+ * conditioned), interpolated linearly in time (fct grows smoothly with maturity). Surface
+ * stress exists in the hardening phase only; the plastic phase's figure is the capillary
+ * suction, which the humidity probes cannot see (RH stays above 99.9 % up to 100 kPa of
+ * suction, Kelvin), so it is reported but not part of the stress target.
+ */
+import { describe, expect, it } from 'vitest';
+import { createRunEngine } from '../../server/src/live/index.ts';
+import type { RunEngineOptions, RunState } from '../../server/src/live/index.ts';
+import { loadScenarioFolder } from '../../simulators/src/scenarioFolder.ts';
+import { playTwin } from './twinReadings.ts';
+import type { TruthSample, TwinRun } from './twinReadings.ts';
+
+const folder = loadScenarioFolder('level3-topping');
+const OPTIONS: RunEngineOptions = { memberCount: 16, cellCount: 40, outlookEveryAnalyses: 1000 };
+
+/** Runs the engine over the twin, feeding 5 minutes at a time; states by event time. */
+function replay(twin: TwinRun, options: RunEngineOptions): Map<number, RunState> {
+  const engine = createRunEngine('ferngate-l3-twin', folder.runConfig, options);
+  engine.setMeasures(twin.measures);
+  const states = new Map<number, RunState>();
+  const batches = new Map<number, TwinRun['readings']>();
+  for (const reading of twin.readings) {
+    const key = Math.floor(reading.eventTimeMs / 300_000);
+    batches.set(key, [...(batches.get(key) ?? []), reading]);
+  }
+  for (const key of [...batches.keys()].sort((a, b) => a - b)) {
+    engine.addReadings(batches.get(key) ?? []);
+    const state = engine.advance();
+    if (state?.eventTimeMs != null) states.set(state.eventTimeMs, state);
+  }
+  return states;
+}
+
+/** Truth surface stress (MPa) at each hardening sample, as explained above. */
+function truthStressMPa(truth: readonly TruthSample[]): Map<number, number> {
+  const anchors = truth
+    .filter((s) => Number.isFinite(s.marginPa) && Math.abs(1 - s.utilization) > 0.3)
+    .map((s) => ({ timeMs: s.timeMs, fctMPa: s.marginPa / 1e6 / (1 - s.utilization) }));
+  const stress = new Map<number, number>();
+  for (const sample of truth) {
+    if (!Number.isFinite(sample.marginPa)) continue;
+    const next = anchors.findIndex((a) => a.timeMs >= sample.timeMs);
+    const b = anchors[next];
+    const a = anchors[next - 1] ?? b;
+    if (a === undefined || b === undefined) continue;
+    const fct =
+      b.timeMs === a.timeMs
+        ? b.fctMPa
+        : a.fctMPa + ((b.fctMPa - a.fctMPa) * (sample.timeMs - a.timeMs)) / (b.timeMs - a.timeMs);
+    stress.set(sample.timeMs, fct - sample.marginPa / 1e6);
+  }
+  return stress;
+}
+
+describe('live engine twin experiment (level3-topping, no action)', () => {
+  const twin = playTwin(folder.scenario, { logName: 'no-action' });
+  const calibrated = replay(twin, OPTIONS);
+  const prior = replay(twin, { ...OPTIONS, assimilation: false });
+  const truthStress = truthStressMPa(twin.truth);
+  let posteriorSum = 0;
+  let priorSum = 0;
+  let covered = 0;
+  let count = 0;
+  for (const [timeMs, stress] of truthStress) {
+    const post = calibrated.get(timeMs);
+    const before = prior.get(timeMs);
+    if (post?.phase !== 'hardening' || post.surfaceStressMPa === null) continue;
+    if (before?.surfaceStressMPa == null || post.nowBands === null) continue;
+    posteriorSum += (post.surfaceStressMPa - stress) ** 2;
+    priorSum += (before.surfaceStressMPa - stress) ** 2;
+    const band = post.nowBands.surfaceStressMPa;
+    if (stress >= band.p05 && stress <= band.p95) covered += 1;
+    count += 1;
+  }
+  const rmseRatio = Math.sqrt(posteriorSum / priorSum);
+  const coverage = covered / count;
+  const last = [...calibrated.values()].at(-1);
+  const parameter = (name: string) => last?.calibration.find((entry) => entry.name === name);
+  console.info(
+    `twin: ${count} hardening samples, stress RMSE calibrated ${Math.sqrt(posteriorSum / count).toFixed(4)} MPa, prior ${Math.sqrt(priorSum / count).toFixed(4)} MPa, ratio ${rmseRatio.toFixed(3)}, 90 % band coverage ${coverage.toFixed(2)}; ` +
+      last?.calibration
+        .map((c) => `${c.name} ${c.mean.toFixed(3)} [${c.p05.toFixed(3)}, ${c.p95.toFixed(3)}]`)
+        .join('; '),
+  );
+
+  it('compares over the hardening phase with enough samples', () => {
+    expect(count).toBeGreaterThan(40);
+  });
+
+  it('calibrated surface-stress RMSE is at most half that of the prior', () => {
+    expect(rmseRatio).toBeLessThanOrEqual(0.5);
+  });
+
+  it('the 90 % band covers the truth at least 80 % of the time', () => {
+    expect(coverage).toBeGreaterThanOrEqual(0.8);
+  });
+
+  it('recovers the probe biases within 0.5 %RH (stated tolerance, our assumption)', () => {
+    for (const probe of folder.scenario.probeStrings) {
+      for (const sensor of probe.sensors.filter((s) => s.quantity === 'rh')) {
+        const bias = parameter(`rhBias:${probe.device}/${sensor.sensor}`);
+        expect(Math.abs((bias?.mean ?? Number.NaN) - sensor.bias / 100)).toBeLessThanOrEqual(0.005);
+      }
+    }
+  });
+
+  it('the exposure multiplier 90 % interval holds the hidden 1.1', () => {
+    const exposure = parameter('evaporationExposureMultiplier');
+    expect(exposure?.p05).toBeLessThanOrEqual(1.1);
+    expect(exposure?.p95).toBeGreaterThanOrEqual(1.1);
+  });
+
+  it('the permeability multiplier 90 % interval holds the hidden 1.3', () => {
+    const permeability = parameter('permeabilityMultiplier');
+    expect(permeability?.p05).toBeLessThanOrEqual(1.3);
+    expect(permeability?.p95).toBeGreaterThanOrEqual(1.3);
+  });
+});
