@@ -28,8 +28,10 @@ const publish = (minute: number) =>
   rig.ingestor.data(
     'meniscus/harbour-deck/probe-a/data',
     Buffer.from(
+      // The fake engine consumes readings 10 min behind the newest: this releases `minute`.
       JSON.stringify([
         { bn: 'probe-a/', bt: EXAMPLE_PLACED_AT_MS / 1000 + minute * 60, n: 'rh-10', v: 97 },
+        { t: 600, n: 'rh-10', v: 96 },
       ]),
     ),
   );

@@ -135,7 +135,13 @@ describe('run routes', () => {
     const t = EXAMPLE_PLACED_AT_MS / 1000 + 600;
     await rig.ingestor.data(
       'meniscus/harbour-deck/probe-a/data',
-      Buffer.from(JSON.stringify([{ bn: 'probe-a/', bt: t, n: 'rh-10', v: 98 }])),
+      // The fake engine consumes readings 10 min behind the newest one.
+      Buffer.from(
+        JSON.stringify([
+          { bn: 'probe-a/', bt: t, n: 'rh-10', v: 98 },
+          { t: 600, n: 'rh-10', v: 97 },
+        ]),
+      ),
     );
     const after = await call('GET', `/runs/${runId}/state`);
     expect(after.body.eventTimeMs).toBe(t * 1000);

@@ -1,8 +1,10 @@
 /**
  * A tiny stand-in RunEngine for the host's plumbing tests (test folder only; the server ships
- * the real one). It consumes buffered readings in event-time order, drops readings older than
- * its event time (as the real engine cannot go back), and folds the values into an
- * order-sensitive checksum, so any difference in what or in which order it was fed shows.
+ * the real one). Like the real engine (server/src/live/runEngine.ts) it consumes buffered
+ * readings in event-time order only up to a watermark (here: 10 min behind the newest reading),
+ * counts and drops readings at or before its event time, and leaves buffered readings past its
+ * event time out of a snapshot (the host must feed them again on resume). The values fold into
+ * an order-sensitive checksum, so any difference in what or in which order it consumed shows.
  */
 import type {
   CreateRunEngine,
@@ -13,6 +15,9 @@ import type {
   RunEngineSnapshot,
   RunState,
 } from '../../server/src/live/types.ts';
+
+/** The fake consumes readings this far behind the newest one it holds. */
+const WATERMARK_MS = 10 * 60_000;
 
 interface FakeBody {
   buffer: LiveReading[];
@@ -60,7 +65,10 @@ export const createFakeRunEngine: CreateRunEngine = (runId, _config, _options, s
   const engine: RunEngine = {
     runId,
     addReadings(readings) {
-      body.buffer.push(...readings);
+      for (const reading of readings) {
+        if (body.eventTimeMs !== null && reading.eventTimeMs <= body.eventTimeMs) body.dropped += 1;
+        else body.buffer.push(reading);
+      }
     },
     setMeasures(next) {
       measures = next;
@@ -69,20 +77,18 @@ export const createFakeRunEngine: CreateRunEngine = (runId, _config, _options, s
       forecast = next;
     },
     advance() {
-      if (body.buffer.length === 0) return null;
-      const sorted = body.buffer
-        .splice(0)
-        .sort(
-          (a, b) =>
-            a.eventTimeMs - b.eventTimeMs ||
-            a.device.localeCompare(b.device) ||
-            a.sensor.localeCompare(b.sensor),
-        );
+      const newestMs = Math.max(...body.buffer.map((r) => r.eventTimeMs));
+      const watermarkMs = newestMs - WATERMARK_MS;
+      const ready = body.buffer.filter((r) => r.eventTimeMs <= watermarkMs);
+      if (ready.length === 0) return null;
+      body.buffer = body.buffer.filter((r) => r.eventTimeMs > watermarkMs);
+      const sorted = ready.sort(
+        (a, b) =>
+          a.eventTimeMs - b.eventTimeMs ||
+          a.device.localeCompare(b.device) ||
+          a.sensor.localeCompare(b.sensor),
+      );
       for (const reading of sorted) {
-        if (body.eventTimeMs !== null && reading.eventTimeMs < body.eventTimeMs) {
-          body.dropped += 1;
-          continue;
-        }
         body.eventTimeMs = reading.eventTimeMs;
         body.consumed += 1;
         body.checksum = (body.checksum * 31 + Math.round(reading.value * 100)) % 1_000_003;
@@ -91,7 +97,11 @@ export const createFakeRunEngine: CreateRunEngine = (runId, _config, _options, s
     },
     state,
     snapshot(): RunEngineSnapshot {
-      return { version: 1, runId, eventTimeMs: body.eventTimeMs, body: structuredClone(body) };
+      const kept = structuredClone(body);
+      kept.buffer = kept.buffer.filter(
+        (r) => body.eventTimeMs === null || r.eventTimeMs <= body.eventTimeMs,
+      );
+      return { version: 1, runId, eventTimeMs: body.eventTimeMs, body: kept };
     },
   };
   return engine;

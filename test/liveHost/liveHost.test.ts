@@ -78,8 +78,10 @@ describe('LiveHost', () => {
   it('feeds committed readings to the run engine after the commit, not before the acknowledgement', async () => {
     const r = rig('a.sqlite');
     createRun(r);
-    await r.host.idle();
     await publishMinute(r, 0);
+    await r.host.idle();
+    // The fake consumes readings 10 min behind the newest: minute 10 releases minute 0.
+    await publishMinute(r, 10);
     expect(r.states).toHaveLength(0);
     await r.host.idle();
     expect(r.states).toHaveLength(1);
@@ -90,9 +92,9 @@ describe('LiveHost', () => {
   it('takes a snapshot each time the engine has moved on by the cadence in event time', async () => {
     const r = rig('a.sqlite', { snapshotEveryS: 1800 });
     createRun(r);
-    await publishMinutes(r, 0, 125);
+    await publishMinutes(r, 0, 135);
     await r.host.idle();
-    // First state at minute 0 snapshots; then minutes 30, 60, 90, 120.
+    // Consumed up to minute 120; the first state (minute 0) snapshots, then 30, 60, 90, 120.
     expect(r.host.counters.snapshots).toBe(5);
     expect(r.archive.latestSnapshot('run-1')?.eventTimeMs).toBe(
       EXAMPLE_PLACED_AT_MS + 120 * MINUTE_MS,
@@ -104,8 +106,12 @@ describe('LiveHost', () => {
     createRun(crashed);
     await publishMinutes(crashed, 0, 100);
     await crashed.host.idle();
+    // Consumed up to minute 85, last snapshot at 60: readings 65..95 were fed but are not in it.
     const snapshotAt = crashed.archive.latestSnapshot('run-1');
-    expect(snapshotAt?.eventTimeMs).toBe(EXAMPLE_PLACED_AT_MS + 90 * MINUTE_MS);
+    expect(snapshotAt?.eventTimeMs).toBe(EXAMPLE_PLACED_AT_MS + 60 * MINUTE_MS);
+    expect(snapshotAt?.lastReadingId).toBeGreaterThan(
+      crashed.archive.readings('run-1', { toMs: EXAMPLE_PLACED_AT_MS + 61 * MINUTE_MS }).length,
+    );
     // The crash: no close(), no final snapshot; the archive file is all that is left.
     crashed.archive.close();
 
@@ -121,7 +127,7 @@ describe('LiveHost', () => {
     await twin.host.idle();
 
     const twinState = twin.host.state('run-1');
-    expect(calibration(twinState, 'consumed')).toBe(60);
+    expect(calibration(twinState, 'consumed')).toBe(56);
     expect(restarted.host.state('run-1')).toEqual(twinState);
   });
 
@@ -154,7 +160,7 @@ describe('LiveHost', () => {
     await r.host.idle();
     r.lifecycle.close('run-1', null, null);
     const final = r.host.state('run-1');
-    expect(calibration(final, 'consumed')).toBe(16);
+    expect(calibration(final, 'consumed')).toBe(12);
     expect(r.host.health().runs).toBe(0);
     r.archive.close();
     const again = rig('a.sqlite');

@@ -3,8 +3,12 @@
  * told the measure log and supplied forecasts, snapshotted into the archive at a set event-time
  * cadence, and resumed after a restart from the last snapshot with the readings committed since.
  *
- * Feeding order is storage order (reading id): an engine has seen exactly the run's readings up
- * to `lastReadingId`, which is stored with each snapshot. Work is deferred with setImmediate so
+ * Feeding order is storage order (reading id): an engine has been fed exactly the run's readings
+ * up to `lastReadingId`, which is stored with each snapshot. A snapshot leaves out what the
+ * engine had buffered past its event time (server/src/live/runEngine.ts), so a resumed engine is
+ * fed the readings after `lastReadingId` and, before them in storage order, those past the
+ * snapshot's event time; a reading at or before that time is late for both the resumed engine
+ * and an uninterrupted one, and both count it the same way. Work is deferred with setImmediate so
  * a commit (and the broker's PUBACK) never waits for a model step; runs are processed one per
  * turn of the event loop.
  */
@@ -34,6 +38,8 @@ interface Hosted {
   engine: RunEngine;
   lastReadingId: number;
   lastSnapshotEventMs: number | null;
+  /** Set after a resume until the first catch-up: also feed readings past this event time. */
+  resumeAfterEventMs: number | null;
 }
 
 /** Hosts the engines of the archive's open runs; see the file comment. */
@@ -160,6 +166,7 @@ export class LiveHost {
       engine,
       lastReadingId: row?.lastReadingId ?? 0,
       lastSnapshotEventMs: row?.eventTimeMs ?? null,
+      resumeAfterEventMs: row?.eventTimeMs ?? null,
     };
   }
 
@@ -219,18 +226,29 @@ export class LiveHost {
 
   /** Feeds every reading stored after lastReadingId, then advances; the new state or null. */
   #catchUp(hosted: Hosted): RunState | null {
+    const fedUpToId = hosted.lastReadingId;
+    const eventAfterMs = hosted.resumeAfterEventMs;
+    hosted.resumeAfterEventMs = null;
+    let cursor = eventAfterMs === null ? fedUpToId : 0;
     for (;;) {
-      const batch = this.#archive.runReadingsAfter(
-        hosted.run.id,
-        hosted.lastReadingId,
-        this.#options.feedBatch,
-      );
+      const limit = this.#options.feedBatch;
+      const batch =
+        eventAfterMs === null
+          ? this.#archive.runReadingsAfter(hosted.run.id, cursor, limit)
+          : this.#archive.runReadingsToResume(
+              hosted.run.id,
+              cursor,
+              fedUpToId,
+              eventAfterMs,
+              limit,
+            );
       if (batch.length === 0) break;
       hosted.engine.addReadings(batch.map(liveReading));
-      hosted.lastReadingId = batch[batch.length - 1]?.id ?? hosted.lastReadingId;
+      cursor = batch[batch.length - 1]?.id ?? cursor;
       this.counters.readingsFed += batch.length;
-      if (batch.length < this.#options.feedBatch) break;
+      if (batch.length < limit) break;
     }
+    hosted.lastReadingId = Math.max(hosted.lastReadingId, cursor);
     const state = hosted.engine.advance();
     if (state !== null) this.counters.advances += 1;
     return state;
