@@ -114,6 +114,28 @@ describe('createRunEngine()', () => {
     expect(codes).not.toContain('late-readings');
   });
 
+  it('uses a supplied forecast: humid calm air ahead lowers the outlook against persistence', () => {
+    const persistence = fresh();
+    feed(persistence, twin.readings, 1800);
+    const supplied = fresh();
+    const startMs = Date.parse(folder.runConfig.placedAt);
+    supplied.setForecast(
+      Array.from({ length: 12 }, (_, i) => ({
+        timeMs: startMs + i * 3_600_000,
+        relativeHumidityPercent: 95,
+        windSpeedMs: 0.5,
+      })),
+    );
+    feed(supplied, twin.readings, 1800);
+    const a = persistence.state().outlook;
+    const b = supplied.state().outlook;
+    expect(a?.forecastSource).toBe('persistence');
+    expect(b?.forecastSource).toBe('supplied');
+    // Before the forecast takes over, the members are the same (the forecast only acts ahead).
+    expect(supplied.state().calibration).toEqual(persistence.state().calibration);
+    expect(b?.utilizationBand.p50.at(-1)).toBeLessThan(a?.utilizationBand.p50.at(-1) ?? Number.NaN);
+  });
+
   it('reports the contract figures with the caution text and a probe beside the model', () => {
     const engine = fresh();
     feed(engine, twin.readings, 1800);
