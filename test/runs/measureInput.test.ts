@@ -46,7 +46,24 @@ describe('parseMeasureStart()', () => {
     });
   });
 
+  it('takes fogging with its humidity and a windbreak with its wind factor', () => {
+    expect(
+      parseMeasureStart({ kind: 'fogging', loggedBy: 'x', relativeHumidity: 0.95 }, NOW_MS),
+    ).toMatchObject({ kind: 'fogging', relativeHumidity: 0.95 });
+    expect(
+      parseMeasureStart({ kind: 'windbreak', loggedBy: 'x', windFactor: 0.4 }, NOW_MS),
+    ).toMatchObject({ kind: 'windbreak', windFactor: 0.4 });
+  });
+
   it.each([
+    [
+      { kind: 'ponding', loggedBy: 'x', windFactor: 0.4 },
+      'windFactor applies to windbreak only: got it for ponding',
+    ],
+    [
+      { kind: 'fogging', loggedBy: 'x', relativeHumidity: 95 },
+      'relativeHumidity must be at most 1: got 95',
+    ],
     [
       { loggedBy: 'x' },
       'kind must be one of wet-covering, ponding, curing-compound, fogging, windbreak: got nothing',

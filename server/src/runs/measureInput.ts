@@ -25,6 +25,11 @@ const person = z
   .min(1, { error: 'must not be empty' })
   .max(100, { error: 'must be at most 100 characters' });
 
+const fraction = z
+  .number({ error: 'must be a number from 0 to 1' })
+  .min(0, { error: 'must be at least 0' })
+  .max(1, { error: 'must be at most 1' });
+
 const startSchema = z.strictObject({
   kind: z.enum(MEASURE_KINDS, { error: `must be one of ${MEASURE_KINDS.join(', ')}` }),
   /** Start of the measure; the server's time when absent. */
@@ -33,11 +38,11 @@ const startSchema = z.strictObject({
   endAt: isoTime.nullable().optional(),
   loggedBy: person,
   /** Curing compound efficiency 0..1 (the product's own figure). */
-  efficiency: z
-    .number({ error: 'must be a number from 0 to 1' })
-    .min(0, { error: 'must be at least 0' })
-    .max(1, { error: 'must be at most 1' })
-    .optional(),
+  efficiency: fraction.optional(),
+  /** Fogging: relative humidity held over the surface, fraction 0..1. */
+  relativeHumidity: fraction.optional(),
+  /** Windbreak: sheltered over open wind speed, 0..1. */
+  windFactor: fraction.optional(),
   note: z.string().max(500, { error: 'must be at most 500 characters' }).optional(),
 });
 
@@ -54,6 +59,8 @@ export interface MeasureStart {
   endMs: number | null;
   loggedBy: string;
   efficiency?: number;
+  relativeHumidity?: number;
+  windFactor?: number;
   note?: string;
 }
 
@@ -62,14 +69,16 @@ export interface MeasureStart {
  *
  * @param body - parsed JSON body
  * @param nowMs - server time for an absent startAt, ms since the epoch
- * @throws ValidationError naming each bad field; also when endAt is before startAt, or
- *   efficiency is given for a kind other than curing-compound
+ * @throws ValidationError naming each bad field; also when endAt is before startAt, or a
+ *   figure is given for another kind (efficiency: curing-compound, relativeHumidity: fogging,
+ *   windFactor: windbreak)
  */
 export function parseMeasureStart(body: unknown, nowMs: number): MeasureStart {
   const parsed = startSchema.safeParse(body);
   if (!parsed.success)
     throw new ValidationError('measure', formatIssues(parsed.error.issues, body));
-  const { kind, startAt, endAt, loggedBy, efficiency, note } = parsed.data;
+  const { kind, startAt, endAt, loggedBy, efficiency, relativeHumidity, windFactor, note } =
+    parsed.data;
   const startMs = startAt === undefined ? nowMs : Date.parse(startAt);
   const endMs = endAt === undefined || endAt === null ? null : Date.parse(endAt);
   const issues: string[] = [];
@@ -77,8 +86,14 @@ export function parseMeasureStart(body: unknown, nowMs: number): MeasureStart {
     issues.push(
       `endAt must not be before startAt (${new Date(startMs).toISOString()}): got ${endAt}`,
     );
-  if (efficiency !== undefined && kind !== 'curing-compound')
-    issues.push(`efficiency applies to curing-compound only: got it for ${kind}`);
+  for (const [field, value, only] of [
+    ['efficiency', efficiency, 'curing-compound'],
+    ['relativeHumidity', relativeHumidity, 'fogging'],
+    ['windFactor', windFactor, 'windbreak'],
+  ] as const) {
+    if (value !== undefined && kind !== only)
+      issues.push(`${field} applies to ${only} only: got it for ${kind}`);
+  }
   if (issues.length > 0) throw new ValidationError('measure', issues);
   return {
     kind,
@@ -86,6 +101,8 @@ export function parseMeasureStart(body: unknown, nowMs: number): MeasureStart {
     endMs,
     loggedBy,
     ...(efficiency === undefined ? {} : { efficiency }),
+    ...(relativeHumidity === undefined ? {} : { relativeHumidity }),
+    ...(windFactor === undefined ? {} : { windFactor }),
     ...(note === undefined ? {} : { note }),
   };
 }
