@@ -1,0 +1,71 @@
+/**
+ * The twin experiment's figures (physics.md 8), computed as the live engine's offline twin test
+ * computes them (test/live/twinExperiment.test.ts): the truth's surface stress recovered from its
+ * utilization and margin (fct = margin / (1 - U) where |1 - U| > 0.3, interpolated linearly in
+ * time; stress = fct - margin), compared with the calibrated and the prior engine over the
+ * hardening phase at the truth's sample times.
+ */
+import type { RunState } from '../../server/src/live/index.ts';
+import type { TruthSample } from '../live/twinReadings.ts';
+
+export interface TwinFigures {
+  /** Hardening samples compared. */
+  count: number;
+  calibratedRmseMPa: number;
+  priorRmseMPa: number;
+  /** Calibrated over prior RMSE. */
+  rmseRatio: number;
+  /** Share of samples where the truth lies in the calibrated 5..95 % band. */
+  coverage: number;
+}
+
+/** Truth surface stress (MPa) at each hardening sample. */
+export function truthStressMPa(truth: readonly TruthSample[]): Map<number, number> {
+  const anchors = truth
+    .filter((s) => Number.isFinite(s.marginPa) && Math.abs(1 - s.utilization) > 0.3)
+    .map((s) => ({ timeMs: s.timeMs, fctMPa: s.marginPa / 1e6 / (1 - s.utilization) }));
+  const stress = new Map<number, number>();
+  for (const sample of truth) {
+    if (!Number.isFinite(sample.marginPa)) continue;
+    const next = anchors.findIndex((a) => a.timeMs >= sample.timeMs);
+    const b = anchors[next];
+    const a = anchors[next - 1] ?? b;
+    if (a === undefined || b === undefined) continue;
+    const fct =
+      b.timeMs === a.timeMs
+        ? b.fctMPa
+        : a.fctMPa + ((b.fctMPa - a.fctMPa) * (sample.timeMs - a.timeMs)) / (b.timeMs - a.timeMs);
+    stress.set(sample.timeMs, fct - sample.marginPa / 1e6);
+  }
+  return stress;
+}
+
+/** Compares calibrated and prior states (by event time) with the truth. */
+export function twinFigures(
+  truth: readonly TruthSample[],
+  calibrated: ReadonlyMap<number, RunState>,
+  prior: ReadonlyMap<number, RunState>,
+): TwinFigures {
+  let posteriorSum = 0;
+  let priorSum = 0;
+  let covered = 0;
+  let count = 0;
+  for (const [timeMs, stress] of truthStressMPa(truth)) {
+    const post = calibrated.get(timeMs);
+    const before = prior.get(timeMs);
+    if (post?.phase !== 'hardening' || post.surfaceStressMPa === null) continue;
+    if (before?.surfaceStressMPa == null || post.nowBands === null) continue;
+    posteriorSum += (post.surfaceStressMPa - stress) ** 2;
+    priorSum += (before.surfaceStressMPa - stress) ** 2;
+    const band = post.nowBands.surfaceStressMPa;
+    if (stress >= band.p05 && stress <= band.p95) covered += 1;
+    count += 1;
+  }
+  return {
+    count,
+    calibratedRmseMPa: Math.sqrt(posteriorSum / count),
+    priorRmseMPa: Math.sqrt(priorSum / count),
+    rmseRatio: Math.sqrt(posteriorSum / priorSum),
+    coverage: covered / count,
+  };
+}
