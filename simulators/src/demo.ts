@@ -46,6 +46,74 @@ export interface DemoRun {
    * far. For judging the server's warning against what really happened.
    */
   truthMarginClosedAtMs(): number | null;
+  /** The server's state as polled during the play, every 10 min of event time. */
+  serverStates(): readonly ServerStateSample[];
+}
+
+/** What the demo keeps of GET /api/runs/:id/state. */
+export interface ServerStateSample {
+  /** Event time of the play when polled, ms. */
+  polledAtMs: number;
+  /** The engine's own event time, ms (null before its first reading). */
+  eventTimeMs: number | null;
+  phase: string;
+  utilization: number | null;
+  /** Expected time of the U = 1 crossing in the outlook, ms; null when none is expected. */
+  expectedClosingMs: number | null;
+}
+
+/** Event time between polls of the server's state, and between progress lines. */
+const STATE_POLL_MS = 10 * 60_000;
+const PRINT_EVERY_MS = 30 * 60_000;
+/** Who the demo logs measures as. */
+const DEMO_CREW = 'Crew lead, level 3 (demo)';
+
+/** A scenario measure as the body of POST /api/runs/:id/measures. */
+export function measureBody(measure: ScenarioMeasure): Record<string, unknown> {
+  return {
+    kind: measure.kind,
+    startAt: measure.startAt,
+    ...(measure.endAt === undefined ? {} : { endAt: measure.endAt }),
+    ...(measure.kind === 'curing-compound' && measure.efficiency !== undefined
+      ? { efficiency: measure.efficiency }
+      : {}),
+    loggedBy: DEMO_CREW,
+    ...(measure.note === undefined ? {} : { note: measure.note }),
+  };
+}
+
+/** A figure with two decimals, without a minus sign on a rounded zero. */
+function shownFigure(value: number): string {
+  const text = value.toFixed(2);
+  return text === '-0.00' ? '0.00' : text;
+}
+
+/** Polls the run's state; null when the server has none (yet) or cannot answer. */
+async function fetchServerState(
+  baseUrl: string,
+  runId: string,
+  polledAtMs: number,
+): Promise<ServerStateSample | null> {
+  try {
+    const response = await api(baseUrl, `/runs/${runId}/state`);
+    if (response.status !== 200) return null;
+    const state = (await response.json()) as {
+      eventTimeMs: number | null;
+      phase: string;
+      utilization: number | null;
+      outlook: { crossings: { threshold: number; expectedTimeMs: number | null }[] } | null;
+    };
+    const crossing = state.outlook?.crossings.find((entry) => entry.threshold === 1);
+    return {
+      polledAtMs,
+      eventTimeMs: state.eventTimeMs,
+      phase: state.phase,
+      utilization: state.utilization,
+      expectedClosingMs: crossing?.expectedTimeMs ?? null,
+    };
+  } catch {
+    return null;
+  }
 }
 
 /** `2026-07-16 13:30` in the scenario's local time (its UTC offset). */
@@ -122,25 +190,29 @@ export async function startDemo(options: DemoOptions): Promise<DemoRun> {
     print(
       `  playing     ${durationH} h of event time at ${speed}x (${Math.round((durationH * 60) / speed)} min), measure log "${measureLog}"`,
     );
-    let measuresApiMissing = false;
+    let measureProblemShown = false;
     const logMeasure = async (measure: ScenarioMeasure) => {
       print(
         `  measure     ${measure.kind} from ${measure.startAt}${measure.endAt === undefined ? '' : ` to ${measure.endAt}`}`,
       );
       const response = await api(baseUrl, `/runs/${runId}/measures`, {
         method: 'POST',
-        body: JSON.stringify(measure),
-      }).catch(() => null);
-      if ((response === null || response.status === 404) && !measuresApiMissing) {
-        measuresApiMissing = true;
-        print(
-          '  (the server has no measure log API yet: the measure acts on the hidden truth only)',
-        );
+        body: JSON.stringify(measureBody(measure)),
+      }).catch((error: unknown) => `${(error as Error).message}`);
+      if (typeof response === 'string' || response.status !== 201) {
+        const why =
+          typeof response === 'string'
+            ? response
+            : `HTTP ${response.status} ${(await response.text()).slice(0, 200)}`;
+        if (!measureProblemShown) print(`  (the server did not log the measure: ${why})`);
+        measureProblemShown = true;
       }
     };
     const offsetMin = utcOffsetMin(scenario.startAt);
     let lastPrintMs = 0;
+    let lastStateMs = 0;
     let truthClosedAtMs: number | null = null;
+    const states: ServerStateSample[] = [];
     const played = playScenario({
       scenario,
       site: runConfig.site,
@@ -151,28 +223,50 @@ export async function startDemo(options: DemoOptions): Promise<DemoRun> {
       ...(options.clock === undefined ? {} : { clock: options.clock }),
       ...(options.signal === undefined ? {} : { signal: options.signal }),
       onMeasureStart: logMeasure,
-      onProgress: (eventTimeMs, truth) => {
+      onProgress: async (eventTimeMs, truth) => {
         const figures = truth.riskFigures();
+        const local = scenarioLocalTime(eventTimeMs, offsetMin);
         if (truthClosedAtMs === null && figures !== null && figures.utilization >= 1) {
           truthClosedAtMs = eventTimeMs;
           print(
-            `  ${scenarioLocalTime(eventTimeMs, offsetMin)}  (hidden truth: the margin has closed, U ${figures.utilization.toFixed(2)}, ${figures.phase} phase)`,
+            `  ${local}  (hidden truth: the margin has closed, U ${figures.utilization.toFixed(2)}, ${figures.phase} phase)`,
           );
         }
-        if (eventTimeMs - lastPrintMs < 30 * 60_000) return;
+        if (eventTimeMs - lastStateMs >= STATE_POLL_MS) {
+          lastStateMs = eventTimeMs;
+          const sample = await fetchServerState(baseUrl, runId, eventTimeMs);
+          if (sample !== null) states.push(sample);
+        }
+        if (eventTimeMs - lastPrintMs < PRINT_EVERY_MS) return;
         lastPrintMs = eventTimeMs;
         const counters = server.ingestor.counters;
         const quarantined = Object.values(counters.quarantined).reduce((a, b) => a + b, 0);
+        const latest = states[states.length - 1];
+        const serverText =
+          latest === undefined || latest.utilization === null
+            ? ''
+            : `; server U ${shownFigure(latest.utilization)} (${latest.phase})${
+                latest.expectedClosingMs === null
+                  ? ''
+                  : `, margin expected to close ${scenarioLocalTime(latest.expectedClosingMs, offsetMin).slice(11)}`
+              }`;
         const truthText =
           figures === null
             ? ''
-            : `; hidden truth U ${figures.utilization.toFixed(2)} (${figures.phase})`;
+            : `; hidden truth U ${shownFigure(figures.utilization)} (${figures.phase})`;
         print(
-          `  ${scenarioLocalTime(eventTimeMs, offsetMin)}  readings stored ${counters.readingsStored}, quarantined ${quarantined}${truthText}`,
+          `  ${local}  readings ${counters.readingsStored}, quarantined ${quarantined}${serverText}${truthText}`,
         );
       },
     });
-    return { server, baseUrl, runId, played, truthMarginClosedAtMs: () => truthClosedAtMs };
+    return {
+      server,
+      baseUrl,
+      runId,
+      played,
+      truthMarginClosedAtMs: () => truthClosedAtMs,
+      serverStates: () => states,
+    };
   } catch (error) {
     await server.close();
     throw error;

@@ -46,7 +46,7 @@ export interface PlayOptions {
   /** Called once when a measure of the log starts, in event time (e.g. to log it on the server). */
   onMeasureStart?: (measure: ScenarioMeasure) => void | Promise<void>;
   /** Called after each round of packs with the event time reached. */
-  onProgress?: (eventTimeMs: number, truth: HiddenTruth) => void;
+  onProgress?: (eventTimeMs: number, truth: HiddenTruth) => void | Promise<void>;
 }
 
 export interface PlayResult {
@@ -181,7 +181,7 @@ export async function playScenario(options: PlayOptions): Promise<PlayResult> {
       }
       await Promise.all(sends);
       result.endedAtMs = nextMs;
-      options.onProgress?.(nextMs, truth);
+      await options.onProgress?.(nextMs, truth);
     }
   } finally {
     await Promise.allSettled([...connections.values()].map((connection) => connection.close()));

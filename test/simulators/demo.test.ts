@@ -86,8 +86,35 @@ describe('the demo (server, run over HTTP, scenario on the engine truth)', () =>
     expect(printed.some((line) => line.includes('hidden truth: the margin has closed'))).toBe(true);
   });
 
+  it('the server has a state with numbers for the run', async () => {
+    const response = await fetch(`${demo.baseUrl}/api/runs/${demo.runId}/state`);
+    expect(response.status).toBe(200);
+    const state = (await response.json()) as {
+      eventTimeMs: number | null;
+      phase: string;
+      utilization: number | null;
+    };
+    expect(state.eventTimeMs).toBeGreaterThan(Date.parse(runConfig.placedAt));
+    expect(['plastic', 'hardening']).toContain(state.phase);
+    expect(Number.isFinite(state.utilization)).toBe(true);
+  });
+
+  it("the server's outlook foresaw the margin closing at least the lead time before the truth's closed", () => {
+    const closedAt = demo.truthMarginClosedAtMs() as number;
+    const leadMs = runConfig.leadTimeMin * 60_000;
+    const warned = demo
+      .serverStates()
+      .find(
+        (sample) =>
+          sample.expectedClosingMs !== null &&
+          sample.eventTimeMs !== null &&
+          sample.eventTimeMs <= closedAt - leadMs,
+      );
+    expect(warned, JSON.stringify(demo.serverStates())).toBeDefined();
+  });
+
   it.todo(
-    'GET /api/runs/:id/state has risk figures and the no-action play raises a notice before the truth margin closes (waits on the engine state and notices API)',
+    'GET /api/runs/:id/notices holds a notice raised before the truth margin closed (waits on the notices API)',
   );
 });
 
@@ -114,6 +141,13 @@ describe('the demo with the measure log "fogging"', () => {
         '  measure     windbreak from 2026-07-16T13:00:00+02:00',
       ]);
       expect(demo.truthMarginClosedAtMs()).toBeNull();
+      const logged = (await (
+        await fetch(`${demo.baseUrl}/api/runs/${demo.runId}/measures`)
+      ).json()) as {
+        measures: { kind: string; loggedBy: string }[];
+      };
+      expect(logged.measures.map((measure) => measure.kind)).toEqual(['fogging', 'windbreak']);
+      expect(printed.filter((line) => line.includes('did not log the measure'))).toEqual([]);
     } finally {
       await demo.server.close();
       rmSync(dataDir, { recursive: true, force: true });

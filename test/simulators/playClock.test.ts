@@ -50,7 +50,9 @@ describe('playScenario() pacing', () => {
         clock,
         durationH: 0.5,
         truth: createStandInTruth(scenario.truth, probeDepthsMm(scenario)),
-        onProgress: (eventMs) => sentAt.push({ eventMs, wallMs: nowMs }),
+        onProgress: (eventMs) => {
+          sentAt.push({ eventMs, wallMs: nowMs });
+        },
       });
       const startMs = Date.parse(scenario.startAt);
       expect(sentAt).toHaveLength(31);
