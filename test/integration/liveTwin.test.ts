@@ -9,8 +9,9 @@
  * its seed) so the two are comparable. The prior is the same engine without assimilation, fed the
  * readings the archive committed.
  *
- * Determinism: a second engine of the same run and options, fed the archive's readings in one
- * batch, ends in exactly the state the server reached feeding them commit by commit.
+ * Determinism: engines of the same run and options, fed the archive's readings message by
+ * message in storage order (as the host feeds them), end in exactly the state the server reached
+ * live.
  */
 import { mkdtempSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
@@ -21,6 +22,7 @@ import { serverConfigFromEnv } from '../../server/src/config/serverConfig.ts';
 import { createRunEngine } from '../../server/src/live/index.ts';
 import type { RunEngineOptions, RunState } from '../../server/src/live/index.ts';
 import { seedFromRunId } from '../../server/src/live/seedFromRunId.ts';
+import { feedByMessage } from '../../server/src/liveHost/feedByMessage.ts';
 import { liveReading } from '../../server/src/liveHost/liveReading.ts';
 import { startServer } from '../../server/src/server.ts';
 import type { RunningServer } from '../../server/src/server.ts';
@@ -165,10 +167,14 @@ describe('live twin experiment through MQTT, ingest and the live host (level3-to
     expect(socket.received('state').at(-1)).toEqual(finalState);
   });
 
-  it('determinism: the same run fed the same archive readings in one batch ends in identical figures', () => {
-    const replay = createRunEngine(runId, folder.runConfig, OPTIONS);
-    replay.addReadings(server.archive.readings(runId, { limit: 1_000_000 }).map(liveReading));
-    replay.advance();
-    expect(JSON.parse(JSON.stringify(replay.state()))).toEqual(finalState);
+  it('determinism: the same run replayed twice from the archive, message by message, gives the live figures exactly', () => {
+    const stored = server.archive.runReadingsAfter(runId, 0, 1_000_000);
+    const replays = [1, 2].map(() => {
+      const replay = createRunEngine(runId, folder.runConfig, OPTIONS);
+      feedByMessage(replay, stored);
+      return JSON.parse(JSON.stringify(replay.state())) as RunState;
+    });
+    expect(replays[0]).toEqual(finalState);
+    expect(replays[1]).toEqual(finalState);
   });
 });

@@ -3,8 +3,10 @@
  * told the measure log and supplied forecasts, snapshotted into the archive at a set event-time
  * cadence, and resumed after a restart from the last snapshot with the readings committed since.
  *
- * Feeding order is storage order (reading id): an engine has been fed exactly the run's readings
- * up to `lastReadingId`, which is stored with each snapshot. A snapshot leaves out what the
+ * Feeding order is storage order (reading id), one message at a time with an advance after each
+ * (feedByMessage), so an engine's state depends on the run's messages in storage order alone and
+ * a replay of the archive reproduces it. An engine has been fed exactly the run's readings up to
+ * `lastReadingId`, which is stored with each snapshot. A snapshot leaves out what the
  * engine had buffered past its event time (server/src/live/runEngine.ts), so a resumed engine is
  * fed the readings after `lastReadingId` and, before them in storage order, those past the
  * snapshot's event time; a reading at or before that time is late for both the resumed engine
@@ -16,6 +18,7 @@ import type { CreateRunEngine, RunEngine, RunEngineOptions, RunState } from '../
 import type { RunLifecycle } from '../runs/runLifecycle.ts';
 import type { Archive } from '../store/archive.ts';
 import type { RunRecord } from '../store/types.ts';
+import { feedByMessage } from './feedByMessage.ts';
 import { liveReading } from './liveReading.ts';
 
 export interface LiveHostOptions {
@@ -224,15 +227,20 @@ export class LiveHost {
     }
   }
 
-  /** Feeds every reading stored after lastReadingId, then advances; the new state or null. */
+  /**
+   * Feeds every reading stored after lastReadingId one message at a time (feedByMessage); after
+   * a resume, first puts back at once, without advancing, the readings fed before the snapshot
+   * that it left out. Returns the newest state or null when the engine did not move.
+   */
   #catchUp(hosted: Hosted): RunState | null {
     const fedUpToId = hosted.lastReadingId;
     const eventAfterMs = hosted.resumeAfterEventMs;
     hosted.resumeAfterEventMs = null;
+    const limit = this.#options.feedBatch;
     let cursor = eventAfterMs === null ? fedUpToId : 0;
+    let latest: RunState | null = null;
     for (;;) {
-      const limit = this.#options.feedBatch;
-      const batch =
+      let batch =
         eventAfterMs === null
           ? this.#archive.runReadingsAfter(hosted.run.id, cursor, limit)
           : this.#archive.runReadingsToResume(
@@ -243,15 +251,25 @@ export class LiveHost {
               limit,
             );
       if (batch.length === 0) break;
-      hosted.engine.addReadings(batch.map(liveReading));
-      cursor = batch[batch.length - 1]?.id ?? cursor;
+      const full = batch.length === limit;
+      if (full) {
+        // Keep a message whole: its tail would be in the next page.
+        const lastMessage = batch[batch.length - 1]?.messageId;
+        const cut = batch.findIndex((r) => r.messageId === lastMessage);
+        if (cut > 0) batch = batch.slice(0, cut);
+      }
+      let first = 0;
+      while (first < batch.length && (batch[first]?.id ?? 0) <= fedUpToId) first += 1;
+      if (first > 0) hosted.engine.addReadings(batch.slice(0, first).map(liveReading));
+      const fed = feedByMessage(hosted.engine, batch.slice(first));
+      if (fed.state !== null) latest = fed.state;
+      this.counters.advances += fed.advances;
       this.counters.readingsFed += batch.length;
-      if (batch.length < limit) break;
+      cursor = batch[batch.length - 1]?.id ?? cursor;
+      if (!full) break;
     }
     hosted.lastReadingId = Math.max(hosted.lastReadingId, cursor);
-    const state = hosted.engine.advance();
-    if (state !== null) this.counters.advances += 1;
-    return state;
+    return latest;
   }
 
   #snapshot(hosted: Hosted): void {
