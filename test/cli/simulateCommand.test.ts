@@ -147,6 +147,32 @@ describe('meniscus simulate', () => {
     expect(series[1]?.evaporationKgM2h).toBeCloseTo(0.2, 3);
   });
 
+  it('--stress-reference: final-set (default) is stress-free before set, placement counts the suction built before it', async () => {
+    const seriesOf = async (extra: string[]) => {
+      const { json } = await runCliJson(
+        [...BASE, ...STEADY, '--hours', '6', ...extra],
+        undefined,
+        callCli,
+      );
+      return json;
+    };
+    const fromSet = await seriesOf([]);
+    const fromPlacement = await seriesOf(['--stress-reference', 'placement']);
+    expect(fromSet.stressReference).toBe('final-set');
+    expect(fromPlacement.stressReference).toBe('placement');
+    type Row = { phase: string; surfaceStressMPa: number };
+    const rows = (json: Record<string, unknown>) => json.series as Row[];
+    const plastic = (json: Record<string, unknown>) =>
+      rows(json).filter((row) => row.phase === 'plastic');
+    // Both runs leave the plastic phase within 6 h (the mortar sets at about 5 h of equivalent age).
+    expect(plastic(fromSet).length).toBeLessThan(rows(fromSet).length);
+    expect(plastic(fromSet).every((row) => row.surfaceStressMPa === 0)).toBe(true);
+    expect(plastic(fromPlacement).some((row) => row.surfaceStressMPa > 0)).toBe(true);
+    const firstHardening = (json: Record<string, unknown>) =>
+      rows(json).find((row) => row.phase === 'hardening')?.surfaceStressMPa ?? Number.NaN;
+    expect(firstHardening(fromSet)).toBeLessThan(firstHardening(fromPlacement));
+  });
+
   it('writes a PNG figure through resvg', async () => {
     const run = await callCli([
       ...BASE,
@@ -211,6 +237,11 @@ describe('meniscus simulate', () => {
       'a plot that is neither png nor svg',
       [...BASE, ...STEADY, '--plot', 'run.gif'],
       /--plot must name a .png or .svg file: got "run.gif"/,
+    ],
+    [
+      'an unknown stress reference',
+      [...BASE, ...STEADY, '--stress-reference', 'casting'],
+      /--stress-reference must be one of final-set, placement: got "casting"/,
     ],
     [
       'profiles past the run',

@@ -2,6 +2,7 @@
 import type { CuringMeasure } from '../../server/src/physics/curingMeasures.ts';
 import {
   createElementModel,
+  type ElementModelConfig,
   type ElementModelOptions,
 } from '../../server/src/engine/elementModel.ts';
 import type { ElementModel } from '../../server/src/engine/elementModel.ts';
@@ -53,18 +54,20 @@ export function dailyWeather(days: number): WeatherSample[] {
   return samples;
 }
 
-/** A model of a preset with test-sized options. */
+/** A model of a preset with test-sized options (and, in `config`, e.g. the stress reference). */
 export function modelOf(
   presetId: string,
   thicknessM: number,
   dryingCase: DryingCase = 'one-face',
   options: ElementModelOptions = {},
+  config: Pick<ElementModelConfig, 'stressReference'> = {},
 ): ElementModel {
   return createElementModel({
     material: loadMaterialPreset(presetId),
     thicknessM,
     dryingCase,
     options,
+    ...config,
   });
 }
 

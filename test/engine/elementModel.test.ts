@@ -1,5 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { BoundaryInputError } from '../../server/src/engine/boundaryInputs.ts';
+import type { StressReference } from '../../server/src/engine/stressReference.ts';
 import {
   HOUR_S,
   dailyWeather,
@@ -95,15 +96,20 @@ describe('element model behaviour', () => {
   // contrast of equivalent pore pressure between the surface and the depth (section 5), peaks
   // lower. That holds wherever the pores do not refine during the run: the non-hydrating presets,
   // the fine mortar (its pores are already fine), and the concretes with pore refinement off.
+  // The stress here is counted from placement (the whole drying of the run). Counted from final
+  // set (the default) the fine mortar's order can turn: a weak compound moves drying from before
+  // set (stress-free) to after it (2.68 against 2.24 MPa at 25 % in this scenario), while its
+  // hardening-phase utilization still falls (see below).
   const efficiencies = [0, 0.25, 0.5, 0.9];
   const compoundRuns = (
     presetId: string,
     options: Parameters<typeof modelOf>[3] = {},
+    stressReference: StressReference = 'placement',
   ): ReturnType<typeof run>[] =>
     efficiencies.map((efficiency) => {
       const measures = efficiency > 0 ? [measure('curing-compound', 0, 48, { efficiency })] : [];
       return run(
-        modelOf(presetId, 0.05, 'one-face', options),
+        modelOf(presetId, 0.05, 'one-face', options, { stressReference }),
         steadyWeather(30, 0.4, 5),
         12,
         measures,
@@ -142,7 +148,7 @@ describe('element model behaviour', () => {
   it.each(['normal-concrete', 'low-wc-concrete'])(
     'a curing compound on %s with pore refinement moves the stress peak later and lowers the hardening-phase utilization',
     (presetId) => {
-      const results = compoundRuns(presetId);
+      const results = compoundRuns(presetId, {}, 'final-set');
       falling(results.map(hardeningPeakUtilization));
       const [none, weak] = results;
       expect(peakTimeS(weak as ReturnType<typeof run>)).toBeGreaterThan(
@@ -151,15 +157,53 @@ describe('element model behaviour', () => {
     },
   );
 
+  it.each(['final-set', 'placement'] as const)(
+    "with the %s stress reference, the fine mortar's hardening-phase utilization falls with the compound efficiency",
+    (stressReference) => {
+      falling(
+        compoundRuns('cement-mortar-fine', {}, stressReference).map(hardeningPeakUtilization),
+      );
+    },
+  );
+
   // Common practice (physics.md section 5, not a published source): under harsh drying a
   // coarse-pored stone stays near 0.1 MPa, a fine-pored mortar passes its ~3 MPa tensile strength.
-  it('coarse stone stays near 0.1 MPa under harsh drying (common practice)', () => {
-    const stone = run(modelOf('building-stone-coarse', 0.05), steadyWeather(35, 0.3, 8), 24);
-    expect(stone.maxSurfaceStressPa).toBeLessThan(0.2e6);
+  it.each(['final-set', 'placement'] as const)(
+    'coarse stone stays near 0.1 MPa under harsh drying (common practice; %s reference)',
+    (stressReference) => {
+      const stone = run(
+        modelOf('building-stone-coarse', 0.05, 'one-face', {}, { stressReference }),
+        steadyWeather(35, 0.3, 8),
+        24,
+      );
+      expect(stone.maxSurfaceStressPa).toBeLessThan(0.2e6);
+    },
+  );
+
+  // The stress of a mix counts from final set (stressReference.ts). Harsh drying from placement
+  // dries the mortar's surface before it sets, and the drying stops its hydration (physics.md 6),
+  // so in this model its surface does not reach final set within 24 h (the plastic criterion
+  // governs then). The scenario therefore keeps the surface wet until after final set (about
+  // 2.3 h of event time at 35 degC) and dries it harshly from 6 h on.
+  it('fine mortar passes its 28-day tensile strength under harsh drying that continues after final set (common practice)', () => {
+    const model = modelOf('cement-mortar-fine', 0.05);
+    const mortar = run(model, steadyWeather(35, 0.3, 8), 24, [measure('wet-covering', 0, 6)]);
+    const fctm28Pa = (model.material.mix?.strength.fctmMPa ?? Number.NaN) * 1e6;
+    expect(mortar.series.find((f) => f.timeS === 6 * HOUR_S)?.phase).toBe('hardening');
+    expect(mortar.maxSurfaceStressPa).toBeGreaterThan(fctm28Pa);
+    expect(hardeningPeakUtilization(mortar)).toBeGreaterThan(1);
   });
 
-  it('fine mortar passes its 28-day tensile strength under harsh drying (common practice)', () => {
-    const model = modelOf('cement-mortar-fine', 0.05);
+  it('fine mortar passes its 28-day tensile strength under harsh drying from placement when the stress counts from placement (common practice)', () => {
+    const model = modelOf(
+      'cement-mortar-fine',
+      0.05,
+      'one-face',
+      {},
+      {
+        stressReference: 'placement',
+      },
+    );
     const mortar = run(model, steadyWeather(35, 0.3, 8), 24);
     const fctm28Pa = (model.material.mix?.strength.fctmMPa ?? Number.NaN) * 1e6;
     expect(mortar.maxSurfaceStressPa).toBeGreaterThan(fctm28Pa);

@@ -1,9 +1,12 @@
 import { describe, expect, it } from 'vitest';
+import { evaluateElement } from '../../server/src/engine/elementFigures.ts';
 import {
   cloneElementState,
   deserialiseElementState,
   serialiseElementState,
   SnapshotError,
+  type ElementState,
+  type ElementStateSnapshot,
 } from '../../server/src/engine/elementState.ts';
 import { HOUR_S, modelOf } from './_scenarios.ts';
 
@@ -43,7 +46,12 @@ describe('element state', () => {
   });
 
   it.each([
-    ['another version', { version: 99 }, /snapshot version must be 1: got 99/],
+    ['another version', { version: 99 }, /snapshot version must be 1 or 2: got 99/],
+    [
+      'a stress reference of the wrong length',
+      { stressReferencePa: [0, 1] },
+      /stressReferencePa must have 60 values: got 2/,
+    ],
     [
       'arrays of the wrong length',
       { equivalentAgeS: [0, 1] },
@@ -98,5 +106,92 @@ describe('per-member parameters (physics.md section 8: the ensemble varies them)
       exposureMultiplier: 1,
       curingEfficiency: 0.5,
     });
+  });
+});
+
+describe('stress reference in clones and snapshots (version 2; version 1 still read)', () => {
+  const model = modelOf('normal-concrete', 0.1);
+  const finalSetS = (model.material.mix?.setting.finalSetEquivalentAgeDays ?? Number.NaN) * 86400;
+  // At 30 degC the equivalent age runs ahead of time: the surface sets before finalSetS.
+  const beforeSetS = 0.25 * finalSetS;
+  const afterSetS = 1.2 * finalSetS;
+
+  /** A version 1 snapshot as the engine wrote it before the stress reference existed. */
+  const versionOne = (state: ElementState): ElementStateSnapshot => {
+    const snapshot: Partial<ElementStateSnapshot> = { ...serialiseElementState(state), version: 1 };
+    delete snapshot.stressReferencePa;
+    delete snapshot.stressReferenceTimeS;
+    return JSON.parse(JSON.stringify(snapshot)) as ElementStateSnapshot;
+  };
+
+  it('serialises as version 2 with the reference, which restores and is copied independently', () => {
+    const state = model.initialState();
+    model.advanceTo(state, afterSetS, inputs);
+    expect(state.stressReferencePa).not.toBeNull();
+    const snapshot = JSON.parse(JSON.stringify(serialiseElementState(state)));
+    expect(snapshot.version).toBe(2);
+    const restored = deserialiseElementState(snapshot, model.grid.cellCount);
+    expect(Array.from(restored.stressReferencePa ?? [])).toEqual(
+      Array.from(state.stressReferencePa ?? []),
+    );
+    expect(restored.stressReferenceTimeS).toBe(state.stressReferenceTimeS);
+    const copy = cloneElementState(state);
+    copy.stressReferencePa?.fill(-1);
+    expect(state.stressReferencePa?.[0]).not.toBe(-1);
+  });
+
+  it('a version 2 snapshot before set keeps the reference unrecorded (null, NaN time)', () => {
+    const state = model.initialState();
+    model.advanceTo(state, beforeSetS, inputs);
+    const restored = deserialiseElementState(
+      JSON.parse(JSON.stringify(serialiseElementState(state))),
+      model.grid.cellCount,
+    );
+    expect(restored.stressReferencePa).toBeNull();
+    expect(restored.stressReferenceTimeS).toBeNaN();
+  });
+
+  it('a version 1 snapshot taken before set continues exactly like the uninterrupted run', () => {
+    const straight = model.initialState();
+    model.advanceTo(straight, beforeSetS, inputs);
+    const restored = deserialiseElementState(versionOne(straight), model.grid.cellCount);
+    expect(restored.stressReferencePa).toBeNull();
+    model.advanceTo(straight, afterSetS, inputs);
+    model.advanceTo(restored, afterSetS, inputs);
+    expect(restored.stressReferenceTimeS).toBe(straight.stressReferenceTimeS);
+    expect(evaluateElement(model, restored).profiles.stressPa).toEqual(
+      evaluateElement(model, straight).profiles.stressPa,
+    );
+  });
+
+  it('a version 1 snapshot taken after set counts its stress from placement (reference unknown)', () => {
+    const placementModel = modelOf(
+      'normal-concrete',
+      0.1,
+      'one-face',
+      {},
+      {
+        stressReference: 'placement',
+      },
+    );
+    const state = model.initialState();
+    model.advanceTo(state, afterSetS, inputs);
+    const restored = deserialiseElementState(versionOne(state), model.grid.cellCount);
+    expect(restored.stressReferencePa).toBeNull();
+    // Before it is advanced, and after: the figures it was computing before the upgrade.
+    expect(evaluateElement(model, restored).profiles.stressPa).toEqual(
+      evaluateElement(placementModel, restored).profiles.stressPa,
+    );
+    model.advanceTo(restored, afterSetS + 3600, inputs);
+    expect(restored.stressReferenceTimeS).toBeNaN();
+    expect(Array.from(restored.stressReferencePa ?? [1])).toEqual(
+      new Array(model.grid.cellCount).fill(0),
+    );
+    const figures = evaluateElement(model, restored);
+    expect(figures.surfaceStressPa).toBeCloseTo(
+      evaluateElement(placementModel, restored).surfaceStressPa,
+      6,
+    );
+    expect(figures.surfaceStressPa).not.toBe(0);
   });
 });

@@ -2,6 +2,7 @@ import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import {
   dryingStressFromEquivalentPressure,
+  dryingStressFromEquivalentPressureIncrement,
   dryingStressOnSaturationProfile,
   trapezoidWeightsM,
   type DryingStressMode,
@@ -227,5 +228,77 @@ describe('drying stress rule of thumb: coarse stone versus fine mortar (common p
     expect(surfaceStressMPa(stone, mode)).toBeGreaterThan(0.05);
     expect(surfaceStressMPa(stone, mode)).toBeLessThan(0.3);
     expect(surfaceStressMPa(mortar, mode)).toBeGreaterThan(3);
+  });
+});
+
+describe('dryingStressFromEquivalentPressureIncrement() counts from a stress-free reference', () => {
+  const modes = fc.constantFrom<DryingStressMode>('flat', 'curl', 'restrained');
+  const twoProfiles = profileArbitrary.chain(([depths, now]) =>
+    fc.tuple(
+      fc.constant(depths),
+      fc.constant(now),
+      fc.array(fc.double({ min: -2e7, max: 0, noNaN: true }), {
+        minLength: depths.length,
+        maxLength: depths.length,
+      }),
+    ),
+  );
+
+  it('equals S[pi] - S[pi_ref] in every mode (linear in pi; fast-check)', () => {
+    fc.assert(
+      fc.property(twoProfiles, modes, ([depths, now, reference], mode) => {
+        const options = { mode, restraintDegree: 0.6 };
+        const increment = dryingStressFromEquivalentPressureIncrement(
+          { depthsM: depths },
+          now,
+          reference,
+          options,
+        );
+        const a = dryingStressFromEquivalentPressure({ depthsM: depths }, now, options);
+        const b = dryingStressFromEquivalentPressure({ depthsM: depths }, reference, options);
+        // Rounding of sums of up to 40 terms of 2e7 Pa: 1e-6 Pa absolute is far above it.
+        return increment.stressesPa.every(
+          (stress, i) =>
+            Math.abs(stress - ((a.stressesPa[i] as number) - (b.stressesPa[i] as number))) < 1e-6,
+        );
+      }),
+    );
+  });
+
+  it('gives zero stress everywhere when pi equals the reference (fast-check)', () => {
+    fc.assert(
+      fc.property(profileArbitrary, modes, ([depths, pi], mode) =>
+        dryingStressFromEquivalentPressureIncrement({ depthsM: depths }, pi, pi, {
+          mode,
+        }).stressesPa.every((stress) => stress === 0),
+      ),
+    );
+  });
+
+  it('with an all-zero reference (saturated placement) equals the stress of pi itself', () => {
+    fc.assert(
+      fc.property(profileArbitrary, modes, ([depths, pi], mode) => {
+        const zero = new Float64Array(depths.length);
+        const increment = dryingStressFromEquivalentPressureIncrement(
+          { depthsM: depths },
+          pi,
+          zero,
+          {
+            mode,
+          },
+        );
+        const plain = dryingStressFromEquivalentPressure({ depthsM: depths }, pi, { mode });
+        return increment.stressesPa.every((stress, i) => stress === plain.stressesPa[i]);
+      }),
+    );
+  });
+
+  it('a missing reference value gives NaN (no silent zero)', () => {
+    const result = dryingStressFromEquivalentPressureIncrement(
+      { depthsM: [0, 0.01, 0.02] },
+      [-3e6, -1e6, 0],
+      [-1e6, -1e6],
+    );
+    expect(result.surfaceStressPa).toBeNaN();
   });
 });

@@ -12,7 +12,7 @@ import { UsageError } from './usageError.ts';
 
 /** The engine and physics, imported when the command runs (keeps other commands' start-up short). */
 async function loadEngine() {
-  const [presets, material, model, simulation, figures, input, wind, units, edge, plot] =
+  const [presets, material, model, simulation, figures, input, wind, units, edge, plot, reference] =
     await Promise.all([
       import('../engine/materialPreset.ts'),
       import('../engine/elementMaterial.ts'),
@@ -24,6 +24,7 @@ async function loadEngine() {
       import('../physics/units.ts'),
       import('./simulateInputs.ts'),
       import('./simulatePlot.ts'),
+      import('../engine/stressReference.ts'),
     ]);
   return {
     ...presets,
@@ -36,6 +37,7 @@ async function loadEngine() {
     ...units,
     ...edge,
     ...plot,
+    ...reference,
   };
 }
 type Engine = Awaited<ReturnType<typeof loadEngine>>;
@@ -110,6 +112,11 @@ async function run(flags: FlagReader, context: CommandContext) {
   const thicknessMm = flags.number('--thickness-mm', { unit: 'mm', min: 5, max: 3000 });
   const drying = flags.choice('--drying', ['one-face', 'two-face'] as const, 'one-face');
   const stressMode = flags.choice('--stress-mode', ['flat', 'curl', 'restrained'] as const, 'flat');
+  const stressReference = flags.choice(
+    '--stress-reference',
+    engine.STRESS_REFERENCES,
+    engine.DEFAULT_STRESS_REFERENCE,
+  );
   const hours =
     flags.optionalNumber('--hours', { unit: 'h', min: 0, max: 24 * 60, minExclusive: true }) ?? 24;
   const cells = flags.optionalNumber('--cells', { unit: 'cells', min: 10, max: 2000 }) ?? 60;
@@ -152,6 +159,7 @@ async function run(flags: FlagReader, context: CommandContext) {
     thicknessM: thicknessMm / 1000,
     dryingCase: drying,
     stressMode,
+    stressReference,
     options: { cellCount: Math.round(cells) },
   });
   const started = Date.now();
@@ -197,6 +205,9 @@ async function run(flags: FlagReader, context: CommandContext) {
   }
   notes.push(
     'plastic phase (before final set): utilization is surface suction over the critical suction; hardening phase: surface stress over tensile strength.',
+    stressReference === 'final-set'
+      ? 'drying stress counted from the stress-free state at the surface final set (zero before it).'
+      : 'drying stress counted from the saturated placement (includes the suction built before final set).',
   );
   const forecast = result.series.at(-1)?.strengthForecast;
   const strengthForecast = {
@@ -222,6 +233,7 @@ async function run(flags: FlagReader, context: CommandContext) {
       thicknessMm,
       drying,
       stressMode,
+      stressReference,
       hours,
       cells: model.grid.cellCount,
       ...summary,
@@ -304,6 +316,11 @@ export const simulateCommand: CommandDefinition = {
     {
       flags: '--stress-mode <mode>',
       description: 'flat (default), curl or restrained (physics.md 5)',
+    },
+    {
+      flags: '--stress-reference <ref>',
+      description:
+        'final-set (default: stress counted from the surface final set) or placement (from the saturated placement)',
     },
     { flags: '--air-temp <C>', description: 'constant air temperature, degC (-20 to 60)' },
     {

@@ -2,8 +2,15 @@
  * What the element model reports at one instant (physics.md sections 5 to 7): the depth
  * profiles, the drying stress in the element's mode, strength per depth, and the risk figures
  * with their phase. Composes the physics library; computes no physics of its own.
+ *
+ * The drying stress is counted from the model's stress reference (stressReference.ts): by default
+ * from the equivalent pore pressure profile at the surface's final set, so it is zero before and
+ * at final set and grows with the drying after it; with 'placement', from the saturated placement.
  */
-import { dryingStressFromEquivalentPressure } from '../physics/dryingStress.ts';
+import {
+  dryingStressFromEquivalentPressure,
+  dryingStressFromEquivalentPressureIncrement,
+} from '../physics/dryingStress.ts';
 import { schindlerFolliardDegreeOfHydration } from '../physics/hydration.ts';
 import {
   bleedFilmRemainingHours,
@@ -25,6 +32,7 @@ import {
 import { SECONDS_PER_DAY, SECONDS_PER_HOUR } from '../physics/units.ts';
 import type { ElementModel } from './elementModel.ts';
 import type { ElementState } from './elementState.ts';
+import { DEFAULT_STRESS_REFERENCE, type StressReference } from './stressReference.ts';
 import {
   DEFAULT_TARGET_COMPRESSIVE_STRENGTH_MPA,
   strengthForecast,
@@ -55,7 +63,15 @@ export interface ElementFigures {
   /** fct - sigma_s, Pa; NaN in the plastic phase. */
   marginPa: number;
   utilizationState: UtilizationState;
+  /** Drying stress at the surface, Pa, counted from `stressReference` (tension positive). */
   surfaceStressPa: number;
+  /** Where the stress is counted from (the model's option, default 'final-set'). */
+  stressReference: StressReference;
+  /**
+   * When the final-set reference profile was recorded, s since placement: NaN before final set,
+   * when unknown (restored from a version 1 snapshot after set), and with 'placement'.
+   */
+  stressReferenceTimeS: number;
   surfaceTensileStrengthPa: number;
   surfaceCompressiveStrengthPa: number;
   surfaceLiquidPressurePa: number;
@@ -137,23 +153,53 @@ export function evaluateElement(
   const requestedMode = config.stressMode ?? 'flat';
   const mode =
     config.dryingCase === 'two-face' && requestedMode === 'curl' ? 'flat' : requestedMode;
-  const stress = dryingStressFromEquivalentPressure(
-    { depthsM: profiles.depthM, weightsM: Array.from(grid.widthsM) },
-    profiles.equivalentPorePressurePa,
-    {
-      mode,
-      restraintDegree: config.restraintDegree ?? 1,
-      biotCoefficient: material.biotCoefficient,
-      poissonRatio: material.poissonRatio,
-      relaxationFactor: material.relaxationFactor,
-    },
-  );
-  profiles.stressPa = stress.stressesPa;
+  const stressOptions = {
+    mode,
+    restraintDegree: config.restraintDegree ?? 1,
+    biotCoefficient: material.biotCoefficient,
+    poissonRatio: material.poissonRatio,
+    relaxationFactor: material.relaxationFactor,
+  };
+  const stressProfile = { depthsM: profiles.depthM, weightsM: Array.from(grid.widthsM) };
+  const reference = config.stressReference ?? DEFAULT_STRESS_REFERENCE;
   const surfaceAgeS = state.equivalentAgeS[0] as number;
   const phase: RiskPhase =
     material.mix === undefined
       ? 'hardening'
       : riskPhase(surfaceAgeS / SECONDS_PER_DAY, material.mix.setting.finalSetEquivalentAgeDays);
+  let stressReferenceTimeS = Number.NaN;
+  let stress;
+  if (reference === 'placement') {
+    stress = dryingStressFromEquivalentPressure(
+      stressProfile,
+      profiles.equivalentPorePressurePa,
+      stressOptions,
+    );
+  } else if (state.stressReferencePa !== null) {
+    stressReferenceTimeS = state.stressReferenceTimeS;
+    stress = dryingStressFromEquivalentPressureIncrement(
+      stressProfile,
+      profiles.equivalentPorePressurePa,
+      state.stressReferencePa,
+      stressOptions,
+    );
+  } else if (phase === 'hardening') {
+    // Set but never recorded (a version 1 snapshot not yet advanced): the placement profile.
+    stress = dryingStressFromEquivalentPressure(
+      stressProfile,
+      profiles.equivalentPorePressurePa,
+      stressOptions,
+    );
+  } else {
+    // Before final set the mix flows: no drying stress (the plastic criterion applies).
+    stress = dryingStressFromEquivalentPressureIncrement(
+      stressProfile,
+      profiles.equivalentPorePressurePa,
+      profiles.equivalentPorePressurePa,
+      stressOptions,
+    );
+  }
+  profiles.stressPa = stress.stressesPa;
   const surfacePressure = profiles.liquidPressurePa[0] as number;
   const surfaceStrength = profiles.tensileStrengthPa[0] as number;
   const risk = riskFigures(
@@ -174,6 +220,8 @@ export function evaluateElement(
     marginPa: risk.marginPa,
     utilizationState: risk.state,
     surfaceStressPa: stress.surfaceStressPa,
+    stressReference: reference,
+    stressReferenceTimeS,
     surfaceTensileStrengthPa: surfaceStrength,
     surfaceCompressiveStrengthPa: profiles.compressiveStrengthPa[0] as number,
     surfaceLiquidPressurePa: surfacePressure,

@@ -2,7 +2,9 @@
  * The drying model of one element (physics.md sections 1 to 7): moisture transport through the
  * depth, the exposed surface with bleeding and curing measures, maturity, hydration and pore
  * refinement per depth. `advanceTo` is driven by event time; the state is separate from the
- * model so ensemble members share one model and copy only their state.
+ * model so ensemble members share one model and copy only their state. At the step in which the
+ * surface reaches final set, the model records the equivalent pore pressure profile in the state:
+ * the stress-free reference from which the drying stress is counted (stressReference.ts).
  */
 import { arrheniusAgeFactor, type MaturityOptions } from '../physics/maturity.ts';
 import {
@@ -33,6 +35,7 @@ import type { MaterialPreset } from './materialPreset.ts';
 import { createPoreHydraulics, type PoreHydraulics } from './poreHydraulics.ts';
 import { advanceTransport, type StepControlOptions } from './stepController.ts';
 import { createAgeTable } from './_ageTable.ts';
+import { surfaceHasSet, type StressReference } from './stressReference.ts';
 import { surfaceEvaporation, type SurfaceEvaporationOptions } from './surfaceEvaporation.ts';
 
 /** Options of the element model. Every default states its origin. */
@@ -84,6 +87,13 @@ export interface ElementModelConfig {
   stressMode?: DryingStressMode;
   /** External restraint degree for 'restrained', 0..1, default 1 (our assumption, upper bound). */
   restraintDegree?: number;
+  /**
+   * Where the drying stress is counted from (stressReference.ts), default 'final-set': the
+   * equivalent pore pressure profile at the surface's final set, so the stress is zero at set and
+   * grows with the drying after it (common practice in early-age stress analysis). 'placement'
+   * counts it from the saturated placement (the behaviour before this option).
+   */
+  stressReference?: StressReference;
   options?: ElementModelOptions;
 }
 
@@ -114,6 +124,25 @@ export interface ElementModel {
   advanceTo(state: ElementState, timeS: number, inputs: BoundaryInputs): void;
   /** Points the shared hydraulics at a state (temperatures, refinement, storage). */
   applyState(state: ElementState): void;
+}
+
+/**
+ * Records in `state` the equivalent pore pressure profile of its current pressures as the
+ * stress-free reference, at `timeS` (s since placement; NaN: unknown). The shared hydraulics must
+ * point at the state ({@link ElementModel.applyState}).
+ */
+function recordStressReference(
+  hydraulics: PoreHydraulics,
+  state: ElementState,
+  timeS: number,
+): void {
+  const pressures = state.transport.pressurePa;
+  const reference = new Float64Array(pressures.length);
+  for (let i = 0; i < pressures.length; i += 1) {
+    reference[i] = hydraulics.equivalentPorePressurePa(i, pressures[i] as number);
+  }
+  state.stressReferencePa = reference;
+  state.stressReferenceTimeS = timeS;
 }
 
 /** Builds the model of one element. */
@@ -249,11 +278,19 @@ export function createElementModel(config: ElementModelConfig): ElementModel {
       exposureMultiplier: overrides.exposureMultiplier ?? options.surface?.exposureMultiplier ?? 1,
       curingEfficiency: overrides.curingEfficiency ?? null,
     },
+    // Saturated at placement, pi = 0: a material without a mix carries stress from placement.
+    stressReferencePa: material.mix === undefined ? new Float64Array(n) : null,
+    stressReferenceTimeS: material.mix === undefined ? 0 : Number.NaN,
   });
 
   const advanceTo = (state: ElementState, timeS: number, inputs: BoundaryInputs): void => {
     checkBoundaryInputs(inputs);
     applyState(state);
+    if (state.stressReferencePa === null && surfaceHasSet(material, state.equivalentAgeS[0] ?? 0)) {
+      // Set, but never recorded (a version 1 snapshot): the placement profile, time unknown.
+      state.stressReferencePa = new Float64Array(n);
+      state.stressReferenceTimeS = Number.NaN;
+    }
     fillCellTemperatures(inputs, grid.centresM, newTemperatureK);
     let temperatureChanged = false;
     for (let i = 0; i < n; i += 1) {
@@ -357,9 +394,17 @@ export function createElementModel(config: ElementModelConfig): ElementModel {
    * After an accepted step: equivalent age per cell, then the storage and refinement targets of
    * its age; cells whose target moved by more than the update threshold take it, and their
    * pressures move so they keep their water (the water content comes from the step's last
-   * evaluation, which the workspace holds).
+   * evaluation, which the workspace holds). At the step in which the surface passes final set,
+   * records the stress reference (after the pressures moved, so the stress is zero right then).
    */
   const advanceMaturity = (state: ElementState, stepS: number): void => {
+    updateMaturity(state, stepS);
+    if (state.stressReferencePa === null && surfaceHasSet(material, state.equivalentAgeS[0] ?? 0)) {
+      recordStressReference(hydraulics, state, state.transport.timeS);
+    }
+  };
+
+  const updateMaturity = (state: ElementState, stepS: number): void => {
     const mix = material.mix;
     if (mix === undefined) return;
     const pressures = state.transport.pressurePa;

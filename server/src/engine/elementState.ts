@@ -1,12 +1,20 @@
 /**
  * The state of one element's drying model: plain numbers and typed arrays, so a member of an
  * ensemble is copied with {@link cloneElementState} in microseconds and a snapshot for restart
- * is a small JSON object ({@link serialiseElementState}, versioned).
+ * is a small JSON object ({@link serialiseElementState}, versioned). The state also carries the
+ * stress-free reference of the drying stress (stressReference.ts): the equivalent pore pressure
+ * profile recorded at the surface's final set.
  */
 import type { TransportState } from './stepController.ts';
 
-/** Version of the snapshot layout written by {@link serialiseElementState}. */
-export const ELEMENT_STATE_VERSION = 1;
+/**
+ * Version of the snapshot layout written by {@link serialiseElementState}: 2 adds the stress
+ * reference (version 1 snapshots are still read, see {@link deserialiseElementState}).
+ */
+export const ELEMENT_STATE_VERSION = 2;
+
+/** Snapshot versions {@link deserialiseElementState} reads. */
+export const READABLE_ELEMENT_STATE_VERSIONS: readonly number[] = [1, 2];
 
 /**
  * Uncertain parameters a state carries, so the members of an ensemble can differ in them while
@@ -47,6 +55,18 @@ export interface ElementState {
   lastPotentialEvaporationKgM2s: number;
   /** This state's uncertain parameters. */
   parameters: ElementParameters;
+  /**
+   * Equivalent pore pressure of each cell at the stress-free reference, the surface's final set
+   * (stressReference.ts), Pa; null until the surface has set. A material without a mix records
+   * the placement profile (zeros) at time 0.
+   */
+  stressReferencePa: Float64Array | null;
+  /**
+   * When `stressReferencePa` was recorded, s since placement; NaN while it is null, and when the
+   * moment is unknown (a version 1 snapshot restored after final set: the reference is then the
+   * placement profile, zeros, so that run's figures continue as they were computed).
+   */
+  stressReferenceTimeS: number;
 }
 
 /** JSON form of an {@link ElementState}. */
@@ -64,6 +84,10 @@ export interface ElementStateSnapshot {
   lastEvaporationKgM2s: number;
   lastPotentialEvaporationKgM2s: number;
   parameters: ElementParameters;
+  /** Absent in version 1; null until final set. */
+  stressReferencePa?: number[] | null;
+  /** Absent in version 1; null stands for NaN (JSON has no NaN). */
+  stressReferenceTimeS?: number | null;
 }
 
 /** Deep copy: new typed arrays, same numbers. */
@@ -76,6 +100,7 @@ export function cloneElementState(state: ElementState): ElementState {
     diameterScale: state.diameterScale.slice(),
     specificStoragePerPa: state.specificStoragePerPa.slice(),
     parameters: { ...state.parameters },
+    stressReferencePa: state.stressReferencePa === null ? null : state.stressReferencePa.slice(),
   };
 }
 
@@ -90,6 +115,11 @@ export function serialiseElementState(state: ElementState): ElementStateSnapshot
     diameterScale: Array.from(state.diameterScale),
     specificStoragePerPa: Array.from(state.specificStoragePerPa),
     parameters: { ...state.parameters },
+    stressReferencePa:
+      state.stressReferencePa === null ? null : Array.from(state.stressReferencePa),
+    stressReferenceTimeS: Number.isNaN(state.stressReferenceTimeS)
+      ? null
+      : state.stressReferenceTimeS,
   };
 }
 
@@ -102,24 +132,30 @@ export class SnapshotError extends Error {
 }
 
 /**
- * Restores a state from {@link serialiseElementState} output. Throws {@link SnapshotError} when the
- * version differs or the arrays do not match `cellCount`.
+ * Restores a state from {@link serialiseElementState} output, of version 2 or 1. A version 1
+ * snapshot has no stress reference: it is restored as not recorded (null, time NaN); if the
+ * surface had already set, the model then takes the placement profile (zeros) as the reference,
+ * time unknown (NaN), so a run resumed across the upgrade keeps computing the figures it
+ * computed before. Throws {@link SnapshotError} when the version is not readable or the arrays
+ * do not match `cellCount`.
  */
 export function deserialiseElementState(
   snapshot: ElementStateSnapshot,
   cellCount: number,
 ): ElementState {
-  if (snapshot.version !== ELEMENT_STATE_VERSION) {
+  if (!READABLE_ELEMENT_STATE_VERSIONS.includes(snapshot.version)) {
     throw new SnapshotError(
-      `snapshot version must be ${ELEMENT_STATE_VERSION}: got ${String(snapshot.version)}`,
+      `snapshot version must be ${READABLE_ELEMENT_STATE_VERSIONS.join(' or ')}: got ${String(snapshot.version)}`,
     );
   }
+  const reference = snapshot.version === 1 ? null : (snapshot.stressReferencePa ?? null);
   for (const [field, values] of [
     ['transport.pressurePa', snapshot.transport.pressurePa],
     ['equivalentAgeS', snapshot.equivalentAgeS],
     ['temperatureK', snapshot.temperatureK],
     ['diameterScale', snapshot.diameterScale],
     ['specificStoragePerPa', snapshot.specificStoragePerPa],
+    ...(reference === null ? [] : [['stressReferencePa', reference] as const]),
   ] as const) {
     if (values.length !== cellCount) {
       throw new SnapshotError(
@@ -143,5 +179,8 @@ export function deserialiseElementState(
     temperatureK: Float64Array.from(snapshot.temperatureK),
     diameterScale: Float64Array.from(snapshot.diameterScale),
     specificStoragePerPa: Float64Array.from(snapshot.specificStoragePerPa),
+    stressReferencePa: reference === null ? null : Float64Array.from(reference),
+    stressReferenceTimeS:
+      reference === null ? Number.NaN : (snapshot.stressReferenceTimeS ?? Number.NaN),
   };
 }

@@ -15,6 +15,7 @@ export * from './boundaryInputs.ts';
 export * from './surfaceEvaporation.ts';
 export * from './elementState.ts';
 export * from './elementModel.ts';
+export * from './stressReference.ts';
 export * from './elementFigures.ts';
 export * from './strengthForecast.ts';
 export * from './simulateElement.ts';

@@ -133,6 +133,39 @@ export function dryingStressFromEquivalentPressure(
 }
 
 /**
+ * Drying stress counted from a stress-free reference state: the stress of the increment
+ * pi(x) - pi_ref(x) since the reference (for example the profile at final set, before which a
+ * fresh mix flows and carries no stress; counting strains from a stress-free state at final set
+ * is common practice in early-age stress analysis).
+ *
+ *   sigma(x) = S[pi - pi_ref](x),  S the stress operator of `dryingStressFromEquivalentPressure`
+ *
+ * S is linear in pi, so this is exactly the stress of the increment:
+ * S[pi] - S[pi_ref]. Source: as `dryingStressFromEquivalentPressure` (physics.md section 5).
+ *
+ * @param profile depths (m, from the exposed surface) and optional weights (m).
+ * @param equivalentPressuresPa pi at each depth now, Pa (<= 0).
+ * @param referencePressuresPa pi at each depth in the stress-free reference state, Pa (<= 0),
+ *   paired with the depths; an all-zero reference gives the stress counted from a saturated
+ *   placement, identical to `dryingStressFromEquivalentPressure`.
+ * @param options see `DryingStressOptions`.
+ * @returns as `dryingStressFromEquivalentPressure`, with `meanEquivalentPressurePa` the weighted
+ *   mean of the increment. Equal profiles give zero stress everywhere in every mode; a missing
+ *   or NaN reference value gives NaN where it enters (the means spread it to every depth).
+ */
+export function dryingStressFromEquivalentPressureIncrement(
+  profile: DepthProfile,
+  equivalentPressuresPa: readonly number[],
+  referencePressuresPa: ArrayLike<number>,
+  options: DryingStressOptions = {},
+): DryingStressResult {
+  const increments = equivalentPressuresPa.map(
+    (pi, i) => pi - (referencePressuresPa[i] ?? Number.NaN),
+  );
+  return dryingStressFromEquivalentPressure(profile, increments, options);
+}
+
+/**
  * Drying stress on a saturation profile: pi(S) at each depth through `equivalentPressure`
  * (e.g. `equivalentPorePressureCurve(retention).fromSaturation`), then
  * `dryingStressFromEquivalentPressure`.
