@@ -16,6 +16,8 @@ export const REASON_CODES = [
   'time-in-future',
   'time-before-run',
   'duplicate',
+  /** The device belongs only to closed runs (set by the archive at commit: server/src/store/archive.ts). */
+  'run-closed',
   /** Validation itself failed (a bug): the message is kept so nothing is lost. */
   'internal-error',
 ] as const;

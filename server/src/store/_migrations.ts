@@ -3,7 +3,9 @@
  * Append new migrations; never edit one that has shipped.
  *
  * Times are integers in ms since the Unix epoch (UTC). `records` is the per-run append-only
- * order of everything the run's archive holds: a later hash chain covers it by `seq`.
+ * order of everything the run's archive holds: a later hash chain covers it by `seq`. The measure
+ * log, supplied forecasts and the close of a run are `events` (kinds `measure-started`,
+ * `measure-ended`, `forecast`, `run-closed`; server/src/runs/runLifecycle.ts).
  */
 export const MIGRATIONS: readonly string[] = [
   `
