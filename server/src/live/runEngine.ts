@@ -25,6 +25,7 @@ import type { ElementState, ElementStateSnapshot } from '../engine/index.ts';
 import type { CuringMeasure, CuringMeasureKind } from '../physics/index.ts';
 import { createRunModel } from './runModel.ts';
 import {
+  PARAMETER_INDEX,
   applyAnalysis,
   forecastModel,
   initialMemberFactory,
@@ -91,6 +92,7 @@ export function resolveOptions(runId: string, options: RunEngineOptions): Resolv
     // parameters' spread collapse in the twin experiment; our choice.
     rtpsAlpha: options.rtpsAlpha === undefined ? 0.7 : options.rtpsAlpha,
     analysisUpdates: options.analysisUpdates ?? 'state-and-parameters',
+    plasticPhaseUpdates: options.plasticPhaseUpdates ?? 'state-and-biases',
   };
 }
 
@@ -317,6 +319,11 @@ export function createRunEngine(
           depthM: role.domainDepthM,
         });
       }
+      const finalSetS = model.material.mix?.finalSetEquivalentAgeS ?? 0;
+      const surfaceAgeS = ensemble.members[0]?.carried.equivalentAgeS[0] ?? 0;
+      const plastic = surfaceAgeS < finalSetS;
+      const biasesOnly = opts.plasticPhaseUpdates !== 'all' && plastic;
+      const keepState = opts.plasticPhaseUpdates === 'state-and-biases' && plastic;
       if (opts.assimilation && observations.length > 0) {
         const analysed = assimilate(ensemble, observations, operator, specs, layout, {
           inflation:
@@ -331,10 +338,28 @@ export function createRunEngine(
                   localisation: { halfWidthM: opts.localisationHalfWidthM },
                 },
         }).ensemble;
-        for (const member of analysed.members) {
-          applyAnalysis(member, opts.analysisUpdates === 'state-and-parameters');
-        }
-        ensemble = analysed;
+        const forecast = ensemble;
+        ensemble = {
+          ...analysed,
+          members: analysed.members.map((member, k) => {
+            if (!biasesOnly) {
+              applyAnalysis(member, opts.analysisUpdates === 'state-and-parameters');
+              return member;
+            }
+            const before = forecast.members[k] as (typeof forecast.members)[number];
+            const parameters = before.parameters.slice();
+            parameters.set(
+              member.parameters.subarray(PARAMETER_INDEX.firstBias),
+              PARAMETER_INDEX.firstBias,
+            );
+            if (keepState) {
+              const updated = { state: member.state, parameters, carried: before.carried };
+              applyAnalysis(updated, true);
+              return updated;
+            }
+            return { state: before.state, parameters, carried: before.carried };
+          }),
+        };
       }
       const member0 = ensemble.members[0];
       if (member0 !== undefined) {

@@ -144,7 +144,11 @@ export function buildRunState(input: RunStateInput): RunState {
   };
   return {
     ...base,
-    phase: figures[0]?.phase ?? 'plastic',
+    // Majority of the members: a member whose surface dries early matures more slowly there.
+    phase:
+      figures.filter((figure) => figure.phase === 'hardening').length * 2 >= figures.length
+        ? 'hardening'
+        : 'plastic',
     surfaceStressMPa: finiteOrNull(stress.p50),
     fctmMPa: median((index) => (figures[index]?.surfaceTensileStrengthPa ?? Number.NaN) / 1e6),
     utilization: finiteOrNull(utilization.p50),
