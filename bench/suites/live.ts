@@ -3,7 +3,8 @@
  * the 5-minute forecast of every member, one assimilation of the probe humidities, a 6 h
  * outlook of every member (output every 10 min) and the RunState; the baseline is 32
  * single-member forward runs of the same length (5 min + 6 h, in the outlook's 10-minute input
- * steps, from the same member states, without evaluation or statistics), so the ratio is the
+ * steps, from the same member states, under the outlook's persistence inputs, without
+ * evaluation or statistics), so the ratio is the
  * overhead of calibration, figures and statistics over the bare model. Runs one core keeps
  * current = 300 s / cost of one cycle (outlook every cycle; with an outlook every second cycle
  * the count is reported too). The readings are those of the simulators' level3-topping
@@ -12,6 +13,11 @@
 import { createRunEngine } from '../../server/src/live/index.ts';
 import type { RunEngineSnapshot } from '../../server/src/live/index.ts';
 import { createRunModel } from '../../server/src/live/runModel.ts';
+import type { StreamBuffer } from '../../server/src/live/readingStreams.ts';
+import { streamRoles } from '../../server/src/live/streamRoles.ts';
+import type { WeatherQuantity } from '../../server/src/live/streamRoles.ts';
+import { windowInputs } from '../../server/src/live/windowInputs.ts';
+import type { InputSources } from '../../server/src/live/windowInputs.ts';
 import { cloneElementState, deserialiseElementState } from '../../server/src/engine/index.ts';
 import type { ElementStateSnapshot } from '../../server/src/engine/index.ts';
 import { loadScenarioFolder } from '../../simulators/src/scenarioFolder.ts';
@@ -68,12 +74,24 @@ const suite: BenchSuite = async () => {
     ensemble: { members: { carried: ElementStateSnapshot }[] };
   };
   const states = body.ensemble.members.map((m) => deserialiseElementState(m.carried, CELLS));
-  const inputs = {
-    airTemperatureK: 306.5,
-    relativeHumidity: 0.22,
-    windMS: 5,
-    surfaceTemperatureK: 307.5,
-  };
+  // The outlook's own persistence inputs: the last hour of the snapshot's readings.
+  const streamsJson = (snapshot.body as { streams: Record<string, StreamBuffer> }).streams;
+  const roles = streamRoles(folder.runConfig);
+  const weather = new Map<WeatherQuantity, StreamBuffer>();
+  const probeTemperatures: InputSources['probeTemperatures'][number][] = [];
+  for (const role of roles.values()) {
+    const stream = streamsJson[role.key];
+    if (stream === undefined) continue;
+    if (role.kind === 'weather') weather.set(role.quantity, stream);
+    else if (role.quantity === 'temperature') probeTemperatures.push({ role, stream });
+  }
+  probeTemperatures.sort((a, b) => a.role.domainDepthM - b.role.domainDepthM);
+  const inputs = windowInputs(
+    { weather, probeTemperatures, mastHeightM: 2, measures: [], holdMs: 900_000 },
+    cutMs - 3_600_000,
+    cutMs,
+  ).inputs;
+  if (inputs === null) throw new Error('bench live: no persistence inputs');
   const forwardMs = (): number => {
     let best = Number.POSITIVE_INFINITY;
     for (let repetition = 0; repetition < REPETITIONS; repetition += 1) {
