@@ -165,7 +165,11 @@ export interface QualityFlag {
   sinceMs: number;
 }
 
-/** What GET /api/runs/:id/state returns and socket.io pushes (JSON; keys with unit suffixes). */
+/**
+ * What GET /api/runs/:id/state returns and socket.io pushes (JSON; keys with unit suffixes).
+ * Scalars are null when not defined (e.g. the margin in the plastic phase); band arrays may hold
+ * NaN in memory for such times, which JSON writes as null. Times in ms since the Unix epoch.
+ */
 export interface RunState {
   runId: string;
   /** Engine's event time, ms (null before the first reading). */
