@@ -7,6 +7,7 @@ import { apiRouter } from '../../server/src/api/apiRouter.ts';
 import { errorToHttp } from '../../server/src/api/httpError.ts';
 import { attachLiveSocket, pushState } from '../../server/src/api/liveSocket.ts';
 import { Ingestor } from '../../server/src/ingest/ingestor.ts';
+import type { CreateRunEngine } from '../../server/src/live/types.ts';
 import { LiveHost } from '../../server/src/liveHost/liveHost.ts';
 import { RunLifecycle } from '../../server/src/runs/runLifecycle.ts';
 import { Archive } from '../../server/src/store/archive.ts';
@@ -28,7 +29,12 @@ export async function startLiveApiRig(): Promise<LiveApiRig> {
   const clock = { nowMs: EXAMPLE_PLACED_AT_MS };
   const lifecycle = new RunLifecycle(archive, () => clock.nowMs);
   let io: SocketServer | null = null;
-  const host = new LiveHost(archive, lifecycle, createFakeRunEngine, {
+  // A run named "broken" gets an engine that cannot start (the 503 path).
+  const createEngine: CreateRunEngine = (runId, config, options, snapshot) => {
+    if (config.name === 'broken') throw new Error('the model cannot start: no material data');
+    return createFakeRunEngine(runId, config, options, snapshot);
+  };
+  const host = new LiveHost(archive, lifecycle, createEngine, {
     onState: (runId, state) => {
       if (io !== null) pushState(io, runId, state);
     },

@@ -128,6 +128,17 @@ describe('run routes', () => {
     expect((await call('GET', `/runs/${runId}/forecast`)).body.source).toBe('persistence');
   });
 
+  it('GET /api/runs/:id/state answers 503 with the message when the run engine failed', async () => {
+    const broken = await call('POST', '/runs', exampleRunInput({ name: 'broken' }));
+    const state = await call('GET', `/runs/${String(broken.body.id)}/state`);
+    expect(state).toEqual({
+      status: 503,
+      body: {
+        error: `the live engine of run ${String(broken.body.id)} failed: the model cannot start: no material data`,
+      },
+    });
+  });
+
   it('GET /api/runs/:id/state answers before the first reading, then follows the readings', async () => {
     const before = await call('GET', `/runs/${runId}/state`);
     expect(before.status).toBe(200);

@@ -121,6 +121,7 @@ it(
     expect(settled.readingsFed).toBeLessThan(readings.length);
     expect(served.eventTimeMs).toBeGreaterThan(Date.parse('2026-07-16T16:30:00+02:00'));
     expect(served.surfaceStressMPa).not.toBeNull();
+    expect(served.outlook?.horizonH).toBe(6);
     expect(served).toEqual(twinState);
   },
 );

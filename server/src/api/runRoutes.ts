@@ -103,7 +103,15 @@ export function addRunRoutes(
     const id = runId(request);
     lifecycle.get(id);
     if (live === null) throw new HttpError(503, 'the live engine is not running in this server');
-    const state = live.state(id);
+    let state;
+    try {
+      state = live.state(id);
+    } catch (error) {
+      const message = error instanceof Error ? error.message : String(error);
+      throw new HttpError(503, `the live engine of run ${id} failed: ${message}`, {
+        cause: error,
+      });
+    }
     if (state === null) throw new HttpError(404, `run ${id} has no state`);
     response.json(state);
   });
