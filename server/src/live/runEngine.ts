@@ -373,8 +373,12 @@ export function createRunEngine(
       if (outlookDue) {
         const persistence =
           windowInputs(sources(), toMs - opts.persistenceWindowS * 1000, toMs).inputs ?? inputs;
+        // Points within the horizon, and those before its start up to 3 h old (forecast series
+        // come hourly to three-hourly, our assumption); a stale forecast falls back to
+        // persistence.
         const forecast = body.forecast.filter(
-          (point) => point.timeMs < toMs + opts.horizonH * 3_600_000,
+          (point) =>
+            point.timeMs < toMs + opts.horizonH * 3_600_000 && point.timeMs >= toMs - 3 * 3_600_000,
         );
         const { activeMeasures: _ignored, ...persistenceWithoutMeasures } = persistence;
         void _ignored;
