@@ -9,7 +9,6 @@
  * resumed with the readings after it ends in the same state.
  */
 import {
-  assimilate,
   createEnsemble,
   defaultParameterSpecs,
   forecastEnsemble,
@@ -17,26 +16,25 @@ import {
   restoreEnsemble,
   snapshotEnsemble,
 } from '../calibration/index.ts';
-import type { Ensemble, Observation, OutlookStatistics } from '../calibration/index.ts';
+import type { Ensemble, Observation } from '../calibration/index.ts';
 import type { RunConfig } from '../config/index.ts';
 import { placedAtMs } from '../config/index.ts';
 import { deserialiseElementState, serialiseElementState } from '../engine/index.ts';
 import type { ElementState, ElementStateSnapshot } from '../engine/index.ts';
-import type { CuringMeasure, CuringMeasureKind } from '../physics/index.ts';
 import { createRunModel } from './runModel.ts';
 import {
-  PARAMETER_INDEX,
-  applyAnalysis,
   forecastModel,
   initialMemberFactory,
   observationOperator,
   stateLayout,
 } from './memberModel.ts';
+import { analysisStep } from './analysisStep.ts';
+import { resolveOptions } from './engineOptions.ts';
+import { toCuringMeasures } from './measureLog.ts';
 import { runOutlook } from './outlook.ts';
 import { emptyStream, insertReading, latestAtOrBefore, pruneStream } from './readingStreams.ts';
 import type { StreamBuffer } from './readingStreams.ts';
 import { buildRunState } from './runStateBuilder.ts';
-import { seedFromRunId } from './seedFromRunId.ts';
 import { streamKey, streamRoles } from './streamRoles.ts';
 import type { ProbeRole, WeatherQuantity } from './streamRoles.ts';
 import type {
@@ -49,94 +47,10 @@ import type {
   RunEngineSnapshot,
   RunState,
 } from './types.ts';
+import { streamsFromJson, streamsToJson } from './engineBody.ts';
+import type { EngineBody } from './engineBody.ts';
 import { windowInputs } from './windowInputs.ts';
 import type { InputSources } from './windowInputs.ts';
-
-/** Options with their defaults filled in. */
-export type ResolvedOptions = Required<
-  Omit<
-    RunEngineOptions,
-    'targetStrengthMPa' | 'observationErrorSdPercent' | 'localisationHalfWidthM' | 'rtpsAlpha'
-  >
-> & {
-  targetStrengthMPa: number | null;
-  observationErrorSdPercent: number | null;
-  localisationHalfWidthM: number | null;
-  rtpsAlpha: number | null;
-};
-
-/** Defaults of RunEngineOptions (origins in types.ts). */
-export function resolveOptions(runId: string, options: RunEngineOptions): ResolvedOptions {
-  return {
-    seed: options.seed ?? seedFromRunId(runId),
-    memberCount: options.memberCount ?? 32,
-    horizonH: options.horizonH ?? 6,
-    assimilationIntervalS: options.assimilationIntervalS ?? 300,
-    cellCount: options.cellCount ?? 60,
-    outlookEveryAnalyses: options.outlookEveryAnalyses ?? 1,
-    outlookStepS: options.outlookStepS ?? 600,
-    weatherHoldS: options.weatherHoldS ?? 900,
-    probeSilentS: options.probeSilentS ?? 1800,
-    persistenceWindowS: options.persistenceWindowS ?? 3600,
-    lateToleranceS: options.lateToleranceS ?? 300,
-    assimilation: options.assimilation ?? true,
-    inflationFactor: options.inflationFactor ?? 1.02,
-    targetStrengthMPa: options.targetStrengthMPa ?? null,
-    // 1 %RH: the random part of a reading once the bias parameters take up the offset (sensor
-    // noise, resolution, representativeness of one point); our assumption, chosen in the twin
-    // experiment of test/live/twinExperiment.test.ts against the 2-4 %RH accuracy class.
-    observationErrorSdPercent:
-      options.observationErrorSdPercent === undefined ? 1 : options.observationErrorSdPercent,
-    localisationHalfWidthM: options.localisationHalfWidthM ?? null,
-    // RTPS 0.7 (Whitaker and Hamill 2012 give 0.5 to 0.9): multiplicative 1.02 let the
-    // parameters' spread collapse in the twin experiment; our choice.
-    rtpsAlpha: options.rtpsAlpha === undefined ? 0.7 : options.rtpsAlpha,
-    analysisUpdates: options.analysisUpdates ?? 'state-and-parameters',
-    plasticPhaseUpdates: options.plasticPhaseUpdates ?? 'state-and-biases',
-  };
-}
-
-/** What a snapshot's body holds (JSON). */
-interface EngineBody {
-  engineTimeMs: number | null;
-  cycle: number;
-  streams: Record<string, { timesMs: number[]; values: number[]; lastSeenMs: number | null }>;
-  ensemble: ReturnType<typeof snapshotEnsemble> | null;
-  flags: Record<string, QualityFlag>;
-  lateReadings: number;
-  previousAge: { timeMs: number; ageS: number } | null;
-  ageRate: number;
-  outlook: {
-    startMs: number;
-    statistics: OutlookStatistics;
-    source: 'persistence' | 'supplied';
-  } | null;
-  measures: MeasureEntry[];
-  forecast: ForecastPoint[];
-  state: RunState | null;
-}
-
-const MEASURE_KINDS: readonly CuringMeasureKind[] = [
-  'wet-covering',
-  'ponding',
-  'curing-compound',
-  'fogging',
-  'windbreak',
-];
-
-/** Measure-log entries of a known kind as the physics library's measures. */
-export function toCuringMeasures(entries: readonly MeasureEntry[]): CuringMeasure[] {
-  return entries
-    .filter((entry) => (MEASURE_KINDS as readonly string[]).includes(entry.kind))
-    .map((entry) => ({
-      kind: entry.kind as CuringMeasureKind,
-      startMs: entry.startMs,
-      ...(entry.endMs === null ? {} : { endMs: entry.endMs }),
-      ...(entry.efficiency === undefined ? {} : { efficiency: entry.efficiency }),
-      ...(entry.relativeHumidity === undefined ? {} : { relativeHumidity: entry.relativeHumidity }),
-      ...(entry.windFactor === undefined ? {} : { windFactor: entry.windFactor }),
-    }));
-}
 
 /**
  * Creates the live engine of one run, or resumes it from a snapshot of the same run.
@@ -197,13 +111,7 @@ export function createRunEngine(
       );
     }
     body = structuredClone(snapshot.body as EngineBody);
-    for (const [key, stream] of Object.entries(body.streams)) {
-      streams.set(key, {
-        timesMs: stream.timesMs,
-        values: stream.values,
-        lastSeenMs: stream.lastSeenMs ?? Number.NEGATIVE_INFINITY,
-      });
-    }
+    for (const [key, stream] of streamsFromJson(body.streams)) streams.set(key, stream);
     if (body.ensemble !== null) {
       ensemble = restoreEnsemble(body.ensemble, (json) =>
         deserialiseElementState(json as ElementStateSnapshot, model.grid.cellCount),
@@ -319,47 +227,16 @@ export function createRunEngine(
           depthM: role.domainDepthM,
         });
       }
-      const finalSetS = model.material.mix?.finalSetEquivalentAgeS ?? 0;
-      const surfaceAgeS = ensemble.members[0]?.carried.equivalentAgeS[0] ?? 0;
-      const plastic = surfaceAgeS < finalSetS;
-      const biasesOnly = opts.plasticPhaseUpdates !== 'all' && plastic;
-      const keepState = opts.plasticPhaseUpdates === 'state-and-biases' && plastic;
       if (opts.assimilation && observations.length > 0) {
-        const analysed = assimilate(ensemble, observations, operator, specs, layout, {
-          inflation:
-            opts.rtpsAlpha === null
-              ? { kind: 'multiplicative', factor: opts.inflationFactor }
-              : { kind: 'relaxation-to-prior-spread', alpha: opts.rtpsAlpha },
-          method:
-            opts.localisationHalfWidthM === null
-              ? { kind: 'etkf' }
-              : {
-                  kind: 'serial-ensrf',
-                  localisation: { halfWidthM: opts.localisationHalfWidthM },
-                },
-        }).ensemble;
-        const forecast = ensemble;
-        ensemble = {
-          ...analysed,
-          members: analysed.members.map((member, k) => {
-            if (!biasesOnly) {
-              applyAnalysis(member, opts.analysisUpdates === 'state-and-parameters');
-              return member;
-            }
-            const before = forecast.members[k] as (typeof forecast.members)[number];
-            const parameters = before.parameters.slice();
-            parameters.set(
-              member.parameters.subarray(PARAMETER_INDEX.firstBias),
-              PARAMETER_INDEX.firstBias,
-            );
-            if (keepState) {
-              const updated = { state: member.state, parameters, carried: before.carried };
-              applyAnalysis(updated, true);
-              return updated;
-            }
-            return { state: before.state, parameters, carried: before.carried };
-          }),
-        };
+        const finalSetS = model.material.mix?.finalSetEquivalentAgeS ?? 0;
+        const surfaceAgeS = ensemble.members[0]?.carried.equivalentAgeS[0] ?? 0;
+        ensemble = analysisStep(ensemble, observations, {
+          operator,
+          specs,
+          layout,
+          options: opts,
+          plastic: surfaceAgeS < finalSetS,
+        });
       }
       const member0 = ensemble.members[0];
       if (member0 !== undefined) {
@@ -508,23 +385,7 @@ export function createRunEngine(
     snapshot(): RunEngineSnapshot {
       const snapshotBody: EngineBody = {
         ...body,
-        streams: Object.fromEntries(
-          [...streams].map(([key, stream]) => [
-            key,
-            {
-              timesMs: stream.timesMs.filter(
-                (t) => body.engineTimeMs === null || t <= body.engineTimeMs,
-              ),
-              values: stream.values.filter(
-                (_, i) =>
-                  body.engineTimeMs === null || (stream.timesMs[i] as number) <= body.engineTimeMs,
-              ),
-              lastSeenMs: Number.isFinite(stream.lastSeenMs)
-                ? Math.min(stream.lastSeenMs, body.engineTimeMs ?? stream.lastSeenMs)
-                : null,
-            },
-          ]),
-        ),
+        streams: streamsToJson(streams, body.engineTimeMs),
         ensemble:
           ensemble === null
             ? null
