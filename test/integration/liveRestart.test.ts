@@ -3,10 +3,10 @@
  * options) takes level3-topping from the simulators over MQTT; once its engine has saved
  * snapshots it is killed with SIGKILL in the middle of the play, restarted on the same data
  * folder on the same ports, while the simulators play on (their unacknowledged publishes go out
- * again to the restarted broker). The restarted server resumes from its last snapshot and replays the readings
- * since; its state must equal that of an uninterrupted twin: an engine of the same run (same id,
- * so the same seed) fed the archive's readings message by message in storage order, as the
- * host feeds them (server/src/liveHost/feedByMessage.ts).
+ * again to the restarted broker). The restarted server resumes from its last snapshot and
+ * replays the records since; its state must equal that of an uninterrupted twin: an engine of
+ * the same run (same id, so the same seed) given the archive's record order (each message's
+ * readings, then an advance), as the host gives it (server/src/liveHost/runFeed.ts).
  */
 import { mkdtempSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
@@ -14,7 +14,7 @@ import { join } from 'node:path';
 import { afterAll, expect, it } from 'vitest';
 import { createRunEngine } from '../../server/src/live/index.ts';
 import type { RunState } from '../../server/src/live/index.ts';
-import { feedByMessage } from '../../server/src/liveHost/feedByMessage.ts';
+import { replayRun } from '../../server/src/liveHost/runFeed.ts';
 import { ARCHIVE_FILE } from '../../server/src/server.ts';
 import { Archive } from '../../server/src/store/archive.ts';
 import { virtualClock } from '../../simulators/src/playClock.ts';
@@ -105,9 +105,9 @@ it(
 
     const archive = Archive.open(join(dataDir, ARCHIVE_FILE));
     const readings = archive.runReadingsAfter(RUN_ID, 0, 1_000_000);
-    archive.close();
     const twin = createRunEngine(RUN_ID, folder.runConfig);
-    feedByMessage(twin, readings);
+    replayRun(archive, RUN_ID, twin);
+    archive.close();
     const twinState = JSON.parse(JSON.stringify(twin.state())) as RunState;
     console.info(
       `live restart: killed at ${beforeKill.snapshots} snapshots (${beforeKill.readingsFed} readings fed) while the simulators played on; the restarted host fed ${settled.readingsFed} of ${readings.length} readings (${played.packsSent} packs sent); state at ${new Date(served.eventTimeMs ?? 0).toISOString()}`,

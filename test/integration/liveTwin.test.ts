@@ -9,9 +9,8 @@
  * its seed) so the two are comparable. The prior is the same engine without assimilation, fed the
  * readings the archive committed.
  *
- * Determinism: engines of the same run and options, fed the archive's readings message by
- * message in storage order (as the host feeds them), end in exactly the state the server reached
- * live.
+ * Determinism: engines of the same run and options, given the run's record order from the
+ * archive (as the host gives it), end in exactly the state the server reached live.
  */
 import { mkdtempSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
@@ -22,7 +21,7 @@ import { serverConfigFromEnv } from '../../server/src/config/serverConfig.ts';
 import { createRunEngine } from '../../server/src/live/index.ts';
 import type { RunEngineOptions, RunState } from '../../server/src/live/index.ts';
 import { seedFromRunId } from '../../server/src/live/seedFromRunId.ts';
-import { feedByMessage } from '../../server/src/liveHost/feedByMessage.ts';
+import { replayRun } from '../../server/src/liveHost/runFeed.ts';
 import { liveReading } from '../../server/src/liveHost/liveReading.ts';
 import { startServer } from '../../server/src/server.ts';
 import type { RunningServer } from '../../server/src/server.ts';
@@ -167,11 +166,10 @@ describe('live twin experiment through MQTT, ingest and the live host (level3-to
     expect(socket.received('state').at(-1)).toEqual(finalState);
   });
 
-  it('determinism: the same run replayed twice from the archive, message by message, gives the live figures exactly', () => {
-    const stored = server.archive.runReadingsAfter(runId, 0, 1_000_000);
+  it("determinism: the same run replayed twice from the archive's record order gives the live figures exactly", () => {
     const replays = [1, 2].map(() => {
       const replay = createRunEngine(runId, folder.runConfig, OPTIONS);
-      feedByMessage(replay, stored);
+      replayRun(server.archive, runId, replay);
       return JSON.parse(JSON.stringify(replay.state())) as RunState;
     });
     expect(replays[0]).toEqual(finalState);

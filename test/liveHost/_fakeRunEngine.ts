@@ -91,7 +91,9 @@ export const createFakeRunEngine: CreateRunEngine = (runId, _config, _options, s
       for (const reading of sorted) {
         body.eventTimeMs = reading.eventTimeMs;
         body.consumed += 1;
-        body.checksum = (body.checksum * 31 + Math.round(reading.value * 100)) % 1_000_003;
+        // The measure log in force when a reading is consumed counts too, as it would in a model.
+        body.checksum =
+          (body.checksum * 31 + Math.round(reading.value * 100) + 7 * measures.length) % 1_000_003;
       }
       return state();
     },

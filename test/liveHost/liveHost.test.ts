@@ -6,6 +6,8 @@ import { parseRunConfig } from '../../server/src/config/runConfig.ts';
 import { Ingestor } from '../../server/src/ingest/ingestor.ts';
 import type { RunState } from '../../server/src/live/types.ts';
 import { LiveHost } from '../../server/src/liveHost/liveHost.ts';
+import { liveReading } from '../../server/src/liveHost/liveReading.ts';
+import { replayRun } from '../../server/src/liveHost/runFeed.ts';
 import type { LiveHostOptions } from '../../server/src/liveHost/liveHost.ts';
 import { RunLifecycle } from '../../server/src/runs/runLifecycle.ts';
 import { Archive } from '../../server/src/store/archive.ts';
@@ -151,6 +153,33 @@ describe('LiveHost', () => {
     const again = rig('a.sqlite');
     expect(calibration(again.host.state('run-1'), 'measures')).toBe(1);
     expect(calibration(again.host.state('run-1'), 'forecastPoints')).toBe(1);
+  });
+
+  it('gives the engine a measure in its place among the readings, so a replay of the archive reproduces the live state', async () => {
+    const r = rig('a.sqlite');
+    createRun(r);
+    await publishMinutes(r, 0, 30);
+    await r.host.idle();
+    r.lifecycle.startMeasure('run-1', {
+      kind: 'windbreak',
+      startMs: EXAMPLE_PLACED_AT_MS + 25 * MINUTE_MS,
+      endMs: null,
+      loggedBy: 'crew lead',
+    });
+    await publishMinutes(r, 30, 60);
+    await r.host.idle();
+    const live = r.host.state('run-1');
+
+    const replayed = createFakeRunEngine('run-1', parseRunConfig(exampleRunInput()));
+    replayRun(r.archive, 'run-1', replayed);
+    expect(replayed.state()).toEqual(live);
+
+    // Told the whole log first, an engine computes something else: the order matters.
+    const toldFirst = createFakeRunEngine('run-1', parseRunConfig(exampleRunInput()));
+    toldFirst.setMeasures(r.lifecycle.measures('run-1'));
+    toldFirst.addReadings(r.archive.runReadingsAfter('run-1', 0).map(liveReading));
+    toldFirst.advance();
+    expect(toldFirst.state().surfaceStressMPa).not.toBe(live?.surfaceStressMPa);
   });
 
   it('a closed run keeps its last state, also when replayed after a restart', async () => {

@@ -1,4 +1,4 @@
 export * from './forecastSubscriber.ts';
 export * from './liveHost.ts';
 export * from './liveReading.ts';
-export * from './feedByMessage.ts';
+export * from './runFeed.ts';

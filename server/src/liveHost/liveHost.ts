@@ -1,32 +1,35 @@
 /**
- * One live engine per open run (issue 6): fed the run's committed readings after each commit,
- * told the measure log and supplied forecasts, snapshotted into the archive at a set event-time
- * cadence, and resumed after a restart from the last snapshot with the readings committed since.
+ * One live engine per open run (issue 6): given the run's committed records after each commit,
+ * snapshotted into the archive at a set event-time cadence, and resumed after a restart from the
+ * last snapshot with the records committed since.
  *
- * Feeding order is storage order (reading id), one message at a time with an advance after each
- * (feedByMessage), so an engine's state depends on the run's messages in storage order alone and
- * a replay of the archive reproduces it. An engine has been fed exactly the run's readings up to
- * `lastReadingId`, which is stored with each snapshot. A snapshot leaves out what the
- * engine had buffered past its event time (server/src/live/runEngine.ts), so a resumed engine is
- * fed the readings after `lastReadingId` and, before them in storage order, those past the
- * snapshot's event time; a reading at or before that time is late for both the resumed engine
- * and an uninterrupted one, and both count it the same way. Work is deferred with setImmediate so
- * a commit (and the broker's PUBACK) never waits for a model step; runs are processed one per
- * turn of the event loop.
+ * Each engine is given its run's record order (RunFeed): every message's readings followed by an
+ * advance, and the measure log and forecasts at their places between them, so its state is a
+ * function of the archive and a replay reproduces it. A snapshot stores the seq of the last
+ * record given; a resumed engine is told the measure log and forecast as of that seq, gets back
+ * the readings it had buffered past its event time (a snapshot leaves them out), and then the
+ * records after it, ending in the state of an uninterrupted run. Work is deferred with
+ * setImmediate so a commit (and the broker's PUBACK) never waits for a model step; runs are
+ * processed one per turn of the event loop.
  */
-import type { CreateRunEngine, RunEngine, RunEngineOptions, RunState } from '../live/types.ts';
+import type {
+  CreateRunEngine,
+  RunEngine,
+  RunEngineOptions,
+  RunEngineSnapshot,
+  RunState,
+} from '../live/types.ts';
 import type { RunLifecycle } from '../runs/runLifecycle.ts';
 import type { Archive } from '../store/archive.ts';
 import type { RunRecord } from '../store/types.ts';
-import { feedByMessage } from './feedByMessage.ts';
-import { liveReading } from './liveReading.ts';
+import { RunFeed } from './runFeed.ts';
 
 export interface LiveHostOptions {
   /** Passed to every engine (defaults of RunEngineOptions). */
   engineOptions?: RunEngineOptions;
   /** Event time between snapshots, s: 1800 (our assumption: at most 30 min to replay). */
   snapshotEveryS?: number;
-  /** Readings fed per query while catching up: 20,000 (our assumption; bounds memory). */
+  /** Records given per query while catching up: 10,000 (our assumption; bounds memory). */
   feedBatch?: number;
   /** Server clock for snapshot times, ms: Date.now. */
   clock?: () => number;
@@ -39,10 +42,8 @@ export interface LiveHostOptions {
 interface Hosted {
   run: RunRecord;
   engine: RunEngine;
-  lastReadingId: number;
+  feed: RunFeed;
   lastSnapshotEventMs: number | null;
-  /** Set after a resume until the first catch-up: also feed readings past this event time. */
-  resumeAfterEventMs: number | null;
 }
 
 /** Hosts the engines of the archive's open runs; see the file comment. */
@@ -75,7 +76,7 @@ export class LiveHost {
     this.#options = {
       engineOptions: options.engineOptions ?? {},
       snapshotEveryS: options.snapshotEveryS ?? 1800,
-      feedBatch: options.feedBatch ?? 20_000,
+      feedBatch: options.feedBatch ?? 10_000,
       clock: options.clock ?? Date.now,
       onState: options.onState ?? (() => {}),
       onError: options.onError ?? (() => {}),
@@ -94,14 +95,9 @@ export class LiveHost {
     this.#lifecycle.listen({
       runCreated: (run) => this.#host(run),
       runClosed: (run) => this.#retire(run),
-      measuresChanged: (runId, measures) => {
-        this.#hosted.get(runId)?.engine.setMeasures(measures);
-        this.#mark(runId);
-      },
-      forecastChanged: (runId, points) => {
-        this.#hosted.get(runId)?.engine.setForecast(points);
-        this.#mark(runId);
-      },
+      // The change is a record of the run's order: the feed gives it to the engine in its place.
+      measuresChanged: (runId) => this.#mark(runId),
+      forecastChanged: (runId) => this.#mark(runId),
     });
   }
 
@@ -157,20 +153,21 @@ export class LiveHost {
     }
   }
 
-  /** A fresh or snapshot-resumed engine told the run's measures and forecast (not yet fed). */
+  /** A fresh or snapshot-resumed engine with its feed (records after the snapshot not yet given). */
   #restore(run: RunRecord): Hosted {
+    // Snapshots of before the record-order feed (no lastSeq) are not used: replay from the start.
     const row = this.#archive.latestSnapshot(run.id);
-    const snapshot = row === null ? undefined : JSON.parse(row.snapshotJson);
+    const usable = row !== null && row.lastSeq !== null ? row : null;
+    const snapshot =
+      usable === null ? undefined : (JSON.parse(usable.snapshotJson) as RunEngineSnapshot);
     const engine = this.#create(run.id, run.config, this.#options.engineOptions, snapshot);
-    engine.setMeasures(this.#lifecycle.measures(run.id));
-    engine.setForecast(this.#lifecycle.forecast(run.id));
-    return {
-      run,
+    const feed = new RunFeed(
+      this.#archive,
+      run.id,
       engine,
-      lastReadingId: row?.lastReadingId ?? 0,
-      lastSnapshotEventMs: row?.eventTimeMs ?? null,
-      resumeAfterEventMs: row?.eventTimeMs ?? null,
-    };
+      usable === null ? null : { lastSeq: usable.lastSeq ?? 0, eventTimeMs: usable.eventTimeMs },
+    );
+    return { run, engine, feed, lastSnapshotEventMs: usable?.eventTimeMs ?? null };
   }
 
   #retire(run: RunRecord): void {
@@ -227,49 +224,12 @@ export class LiveHost {
     }
   }
 
-  /**
-   * Feeds every reading stored after lastReadingId one message at a time (feedByMessage); after
-   * a resume, first puts back at once, without advancing, the readings fed before the snapshot
-   * that it left out. Returns the newest state or null when the engine did not move.
-   */
+  /** Gives the engine the records after its feed's position; the newest state or null. */
   #catchUp(hosted: Hosted): RunState | null {
-    const fedUpToId = hosted.lastReadingId;
-    const eventAfterMs = hosted.resumeAfterEventMs;
-    hosted.resumeAfterEventMs = null;
-    const limit = this.#options.feedBatch;
-    let cursor = eventAfterMs === null ? fedUpToId : 0;
-    let latest: RunState | null = null;
-    for (;;) {
-      let batch =
-        eventAfterMs === null
-          ? this.#archive.runReadingsAfter(hosted.run.id, cursor, limit)
-          : this.#archive.runReadingsToResume(
-              hosted.run.id,
-              cursor,
-              fedUpToId,
-              eventAfterMs,
-              limit,
-            );
-      if (batch.length === 0) break;
-      const full = batch.length === limit;
-      if (full) {
-        // Keep a message whole: its tail would be in the next page.
-        const lastMessage = batch[batch.length - 1]?.messageId;
-        const cut = batch.findIndex((r) => r.messageId === lastMessage);
-        if (cut > 0) batch = batch.slice(0, cut);
-      }
-      let first = 0;
-      while (first < batch.length && (batch[first]?.id ?? 0) <= fedUpToId) first += 1;
-      if (first > 0) hosted.engine.addReadings(batch.slice(0, first).map(liveReading));
-      const fed = feedByMessage(hosted.engine, batch.slice(first));
-      if (fed.state !== null) latest = fed.state;
-      this.counters.advances += fed.advances;
-      this.counters.readingsFed += batch.length;
-      cursor = batch[batch.length - 1]?.id ?? cursor;
-      if (!full) break;
-    }
-    hosted.lastReadingId = Math.max(hosted.lastReadingId, cursor);
-    return latest;
+    const fed = hosted.feed.catchUp(this.#options.feedBatch);
+    this.counters.advances += fed.advances;
+    this.counters.readingsFed += fed.readings;
+    return fed.state;
   }
 
   #snapshot(hosted: Hosted): void {
@@ -277,9 +237,10 @@ export class LiveHost {
     this.#archive.saveSnapshot(
       hosted.run.id,
       snapshot.eventTimeMs,
-      hosted.lastReadingId,
+      hosted.feed.lastReadingId,
       JSON.stringify(snapshot),
       this.#options.clock(),
+      hosted.feed.lastSeq,
     );
     hosted.lastSnapshotEventMs = snapshot.eventTimeMs;
     this.counters.snapshots += 1;

@@ -122,4 +122,8 @@ export const MIGRATIONS: readonly string[] = [
   ) STRICT;
   CREATE INDEX snapshots_run ON snapshots(run_id, id);
   `,
+  // 3: a snapshot's position in the run's record order (the live host feeds records in order).
+  `
+  ALTER TABLE snapshots ADD COLUMN last_seq INTEGER;
+  `,
 ];

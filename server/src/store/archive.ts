@@ -181,14 +181,16 @@ export class Archive extends ArchiveQueries {
     lastReadingId: number,
     snapshotJson: string,
     takenAtMs: number,
+    lastSeq: number | null = null,
   ): void {
     this.db.transaction(() => {
       this.db
         .prepare(
-          `INSERT INTO snapshots (run_id, event_time_ms, last_reading_id, taken_at_ms, snapshot_json)
-           VALUES (?, ?, ?, ?, ?)`,
+          `INSERT INTO snapshots
+             (run_id, event_time_ms, last_reading_id, last_seq, taken_at_ms, snapshot_json)
+           VALUES (?, ?, ?, ?, ?, ?)`,
         )
-        .run(runId, eventTimeMs, lastReadingId, takenAtMs, snapshotJson);
+        .run(runId, eventTimeMs, lastReadingId, lastSeq, takenAtMs, snapshotJson);
       this.db
         .prepare(
           `DELETE FROM snapshots WHERE run_id = ? AND id NOT IN

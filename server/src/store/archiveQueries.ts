@@ -4,6 +4,7 @@ import type { RunConfig } from '../config/runConfig.ts';
 import type {
   QuarantinedMessage,
   RunEventRow,
+  RunFeedItem,
   RunRecord,
   SnapshotRow,
   StoredReading,
@@ -274,12 +275,89 @@ export class ArchiveQueries {
     }));
   }
 
+  /**
+   * A run's records after `afterSeq` that an engine takes, in record order: each message with its
+   * readings (storage order) and each event with its kind and detail. Readings of the same
+   * message come together; at most `limit` records.
+   */
+  runFeedAfter(runId: string, afterSeq: number, limit = 10_000): RunFeedItem[] {
+    const records = this.db
+      .prepare(
+        `SELECT seq, kind, row_id AS rowId FROM records
+          WHERE run_id = ? AND seq > ? AND kind IN ('message', 'event') ORDER BY seq LIMIT ?`,
+      )
+      .all(runId, afterSeq, limit) as { seq: number; kind: string; rowId: number }[];
+    const messageReadings = this.db.prepare(
+      `SELECT ${READING_COLUMNS} WHERE rd.message_id = ? AND rd.run_id = ? ORDER BY rd.id`,
+    );
+    const event = this.db.prepare(
+      'SELECT id, at_ms AS atMs, kind, detail_json AS detailJson FROM events WHERE id = ?',
+    );
+    return records.map((record): RunFeedItem => {
+      if (record.kind === 'message') {
+        return {
+          seq: record.seq,
+          kind: 'message',
+          readings: messageReadings.all(record.rowId, runId) as StoredReading[],
+        };
+      }
+      const row = event.get(record.rowId) as {
+        id: number;
+        atMs: number;
+        kind: string;
+        detailJson: string;
+      };
+      return {
+        seq: record.seq,
+        kind: 'event',
+        event: { id: row.id, atMs: row.atMs, kind: row.kind, detail: JSON.parse(row.detailJson) },
+      };
+    });
+  }
+
+  /** A run's events of the given kinds recorded at or before record `seq`, in record order. */
+  eventsUpTo(runId: string, seq: number, kinds: readonly string[]): RunEventRow[] {
+    const rows = this.db
+      .prepare(
+        `SELECT e.id, e.at_ms AS atMs, e.kind, e.detail_json AS detailJson
+           FROM records r JOIN events e ON e.id = r.row_id
+          WHERE r.run_id = ? AND r.kind = 'event' AND r.seq <= ?
+            AND e.kind IN (${kinds.map(() => '?').join(', ')})
+          ORDER BY r.seq`,
+      )
+      .all(runId, seq, ...kinds) as {
+      id: number;
+      atMs: number;
+      kind: string;
+      detailJson: string;
+    }[];
+    return rows.map(({ detailJson, ...row }) => ({
+      ...row,
+      detail: JSON.parse(detailJson) as unknown,
+    }));
+  }
+
+  /**
+   * Readings of messages recorded at or before record `seq` whose event time is after
+   * `eventAfterMs`, in storage order: what an engine had buffered past its event time when a
+   * snapshot was taken at `seq` (a snapshot leaves them out).
+   */
+  runReadingsBufferedAt(runId: string, seq: number, eventAfterMs: number): StoredReading[] {
+    return this.db
+      .prepare(
+        `SELECT ${READING_COLUMNS}
+           JOIN records rec ON rec.run_id = rd.run_id AND rec.kind = 'message' AND rec.row_id = rd.message_id
+          WHERE rd.run_id = ? AND rec.seq <= ? AND rd.event_at_ms > ? ORDER BY rd.id`,
+      )
+      .all(runId, seq, eventAfterMs) as StoredReading[];
+  }
+
   /** The run's latest engine snapshot, or null. */
   latestSnapshot(runId: string): SnapshotRow | null {
     const row = this.db
       .prepare(
         `SELECT id, run_id AS runId, event_time_ms AS eventTimeMs, last_reading_id AS lastReadingId,
-                taken_at_ms AS takenAtMs, snapshot_json AS snapshotJson
+                last_seq AS lastSeq, taken_at_ms AS takenAtMs, snapshot_json AS snapshotJson
            FROM snapshots WHERE run_id = ? ORDER BY id DESC LIMIT 1`,
       )
       .get(runId) as SnapshotRow | undefined;

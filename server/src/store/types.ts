@@ -112,6 +112,13 @@ export interface SnapshotRow {
   eventTimeMs: number | null;
   /** Id of the last of the run's readings fed to the engine before the snapshot. */
   lastReadingId: number;
+  /** Seq of the last record of the run's order the engine had been given (null: older snapshot). */
+  lastSeq: number | null;
   takenAtMs: number;
   snapshotJson: string;
 }
+
+/** One record of a run's order as an engine takes it: a message with its readings, or an event. */
+export type RunFeedItem =
+  | { seq: number; kind: 'message'; readings: StoredReading[] }
+  | { seq: number; kind: 'event'; event: RunEventRow };
