@@ -47,18 +47,26 @@ describe('Archive for the live host', () => {
     expect(archive.latestSnapshot('nope')).toBeNull();
   });
 
-  it('runReadingsToResume() gives the readings after the snapshot and those past its event time, in storage order', async () => {
-    for (const minute of [1, 5, 2, 6, 3]) await publish(minute);
-    const all = archive.runReadingsAfter('run-1', 0);
-    expect(all.map((r) => (r.eventAtMs - EXAMPLE_PLACED_AT_MS) / 60_000)).toEqual([1, 5, 2, 6, 3]);
-    // Snapshot after the first three stored (ids of minutes 1, 5, 2) at event time minute 2.
-    const fedUpToId = all[2]?.id ?? 0;
-    const resumed = archive.runReadingsToResume(
+  it('runFeedAfter() gives messages with their readings and events in record order; runReadingsBufferedAt() what a snapshot left out', async () => {
+    for (const minute of [1, 5]) await publish(minute);
+    archive.appendEvent('run-1', EXAMPLE_PLACED_AT_MS, 'measure-started', { id: 'm1' });
+    for (const minute of [2, 6]) await publish(minute);
+    const minuteOf = (ms: number) => (ms - EXAMPLE_PLACED_AT_MS) / 60_000;
+    const feed = archive.runFeedAfter('run-1', 1);
+    expect(
+      feed.map((item) =>
+        item.kind === 'message' ? item.readings.map((r) => minuteOf(r.eventAtMs)) : item.event.kind,
+      ),
+    ).toEqual([[1], [5], 'measure-started', [2], [6]]);
+    expect(archive.runFeedAfter('run-1', feed[2]?.seq ?? 0)).toHaveLength(2);
+    // A snapshot at the event record, engine time minute 2: minute 5 was buffered past it.
+    const buffered = archive.runReadingsBufferedAt(
       'run-1',
-      0,
-      fedUpToId,
+      feed[2]?.seq ?? 0,
       EXAMPLE_PLACED_AT_MS + 2 * 60_000,
     );
-    expect(resumed.map((r) => (r.eventAtMs - EXAMPLE_PLACED_AT_MS) / 60_000)).toEqual([5, 6, 3]);
+    expect(buffered.map((r) => minuteOf(r.eventAtMs))).toEqual([5]);
+    expect(archive.eventsUpTo('run-1', feed[2]?.seq ?? 0, ['measure-started'])).toHaveLength(1);
+    expect(archive.eventsUpTo('run-1', feed[1]?.seq ?? 0, ['measure-started'])).toHaveLength(0);
   });
 });

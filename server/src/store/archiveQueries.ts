@@ -239,27 +239,6 @@ export class ArchiveQueries {
       .all(runId, afterId, limit) as StoredReading[];
   }
 
-  /**
-   * What an engine resumed from a snapshot must be fed, in storage order, after reading id
-   * `afterId` (a paging cursor): the readings stored after the snapshot (`id > fedUpToId`) and
-   * those it had buffered past its event time, which a snapshot leaves out (`event time >
-   * eventAfterMs`).
-   */
-  runReadingsToResume(
-    runId: string,
-    afterId: number,
-    fedUpToId: number,
-    eventAfterMs: number,
-    limit = 100_000,
-  ): StoredReading[] {
-    return this.db
-      .prepare(
-        `SELECT ${READING_COLUMNS} WHERE rd.run_id = ? AND rd.id > ?
-            AND (rd.id > ? OR rd.event_at_ms > ?) ORDER BY rd.id LIMIT ?`,
-      )
-      .all(runId, afterId, fedUpToId, eventAfterMs, limit) as StoredReading[];
-  }
-
   /** A run's events of the given kinds (all kinds when empty), in record order. */
   events(runId: string, kinds: readonly string[] = []): RunEventRow[] {
     const filter = kinds.length === 0 ? '' : `AND kind IN (${kinds.map(() => '?').join(', ')})`;
