@@ -46,6 +46,8 @@ export interface DemoRun {
    * far. For judging the server's warning against what really happened.
    */
   truthMarginClosedAtMs(): number | null;
+  /** The scenario's offset from UTC, min (for showing event times as on site). */
+  utcOffsetMin: number;
   /** The server's state as polled during the play, every 10 min of event time. */
   serverStates(): readonly ServerStateSample[];
 }
@@ -80,6 +82,30 @@ export function measureBody(measure: ScenarioMeasure): Record<string, unknown> {
     loggedBy: DEMO_CREW,
     ...(measure.note === undefined ? {} : { note: measure.note }),
   };
+}
+
+/**
+ * One line comparing the server's warning with the hidden truth: when the truth's margin closed
+ * and when the server's outlook first expected it to close (and at what event time it said so).
+ */
+export function warningSummary(
+  truthClosedAtMs: number | null,
+  states: readonly ServerStateSample[],
+  utcOffsetMinutes: number,
+): string {
+  const time = (ms: number) => scenarioLocalTime(ms, utcOffsetMinutes).slice(11);
+  const first = states.find(
+    (sample) => sample.expectedClosingMs !== null && sample.eventTimeMs !== null,
+  );
+  const truthText =
+    truthClosedAtMs === null
+      ? 'the hidden truth kept its margin'
+      : `the hidden truth's margin closed at ${time(truthClosedAtMs)}`;
+  const serverText =
+    first === undefined
+      ? 'the server never expected it to close'
+      : `the server first expected closing at ${time(first.expectedClosingMs as number)}, saying so at ${time(first.eventTimeMs as number)}`;
+  return `Warning check: ${truthText}; ${serverText}.`;
 }
 
 /** A figure with two decimals, without a minus sign on a rounded zero. */
@@ -265,6 +291,7 @@ export async function startDemo(options: DemoOptions): Promise<DemoRun> {
       runId,
       played,
       truthMarginClosedAtMs: () => truthClosedAtMs,
+      utcOffsetMin: offsetMin,
       serverStates: () => states,
     };
   } catch (error) {

@@ -11,7 +11,7 @@ import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { serverConfigFromEnv } from '../../server/src/config/serverConfig.ts';
-import { startDemo } from '../../simulators/src/demo.ts';
+import { startDemo, warningSummary } from '../../simulators/src/demo.ts';
 import type { DemoRun } from '../../simulators/src/demo.ts';
 import { virtualClock } from '../../simulators/src/playClock.ts';
 import type { PlayResult } from '../../simulators/src/playScenario.ts';
@@ -170,5 +170,40 @@ describe('scripts/demo.js', () => {
     expect(code).toBe(2);
     expect(stderr.trim().split('\n')).toHaveLength(1);
     expect(stderr).toContain('must be between 1 and 120 (times real time): got 500');
+  });
+});
+
+describe('warningSummary()', () => {
+  const at = (time: string) => Date.parse(`2026-07-16T${time}:00+02:00`);
+  it.each([
+    {
+      truth: at('13:17'),
+      states: [
+        {
+          polledAtMs: at('11:20'),
+          eventTimeMs: at('11:10'),
+          phase: 'plastic',
+          utilization: 0,
+          expectedClosingMs: null,
+        },
+        {
+          polledAtMs: at('11:30'),
+          eventTimeMs: at('11:25'),
+          phase: 'plastic',
+          utilization: 0,
+          expectedClosingMs: at('13:31'),
+        },
+      ],
+      expected:
+        "Warning check: the hidden truth's margin closed at 13:17; the server first expected closing at 13:31, saying so at 11:25.",
+    },
+    {
+      truth: null,
+      states: [],
+      expected:
+        'Warning check: the hidden truth kept its margin; the server never expected it to close.',
+    },
+  ])('$expected', ({ truth, states, expected }) => {
+    expect(warningSummary(truth, states, 120)).toBe(expected);
   });
 });
