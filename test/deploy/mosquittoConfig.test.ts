@@ -12,7 +12,12 @@ import mqtt, { type MqttClient } from 'mqtt';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 
 const deployDir = new URL('../../deploy/mosquitto/', import.meta.url);
-const users = { server: 'meniscus-server', probe: 'probe-a', otherProbe: 'probe-b' } as const;
+const users = {
+  server: 'meniscus-server',
+  forecast: 'meniscus-forecast',
+  probe: 'probe-a',
+  otherProbe: 'probe-b',
+} as const;
 const password = 'test-only-password';
 
 let workDir = '';
@@ -127,7 +132,21 @@ describe('deploy/mosquitto configuration', () => {
     device.end(true);
   });
 
+  it('lets the forecast feed publish a site forecast, which the server reads', async () => {
+    const server = await connect(users.server);
+    const feed = await connect(users.forecast);
+    const received: string[] = [];
+    server.on('message', (topic) => received.push(topic));
+    await server.subscribeAsync('meniscus/#', { qos: 1 });
+    expect(await publishReasonCode(feed, 'meniscus/deck-b/forecast')).toBe(0);
+    await expect.poll(() => received).toEqual(['meniscus/deck-b/forecast']);
+    server.end(true);
+    feed.end(true);
+  });
+
   it.each([
+    ['a device publishing a forecast', users.probe, 'meniscus/deck-b/forecast'],
+    ['the forecast feed publishing readings', users.forecast, 'meniscus/deck-b/probe-a/data'],
     ['another device', users.probe, 'meniscus/deck-b/probe-b/data'],
     ['a topic outside meniscus/', users.probe, 'other/probe-a/data'],
     ['the read-only server account', users.server, 'meniscus/deck-b/probe-a/data'],
