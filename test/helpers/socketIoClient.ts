@@ -1,91 +1,99 @@
 /**
- * A minimal socket.io v4 client over a raw WebSocket, for tests: socket.io-client is not a
- * dependency of the project, and `ws` is (through engine.io). It speaks Engine.IO 4 and
- * Socket.IO 5 packets on the default namespace: open, connect, ping/pong, events, acks.
+ * A typed socket.io-client for the live-push tests: the real client (websocket transport, no
+ * reconnection) with the events of server/src/api/liveSocket.ts, and a recorder of every event
+ * the server sent, so a test can await the next `state` or check that none arrived.
  */
-import WebSocket from 'ws';
+import { io } from 'socket.io-client';
+import type { Socket } from 'socket.io-client';
+import type { JoinAck } from '../../server/src/api/liveSocket.ts';
+import type { RunState } from '../../server/src/live/types.ts';
+
+/** Server -> client events (server/src/api/README.md). */
+export interface LiveServerEvents {
+  /** The run's state on every update of its engine (null before its first analysis). */
+  state: (state: RunState | null) => void;
+  /** Message for a `join` without ack or a `?run=` naming an unknown run. */
+  'join-error': (message: string) => void;
+}
+
+/** Client -> server events (server/src/api/README.md). */
+export interface LiveClientEvents {
+  /** Joins the run's room; the ack answers with the state now or an error. */
+  join: (runId: string, ack: (answer: JoinAck) => void) => void;
+  leave: (runId: string) => void;
+}
+
+export type LiveSocket = Socket<LiveServerEvents, LiveClientEvents>;
+
+type Payload<E extends keyof LiveServerEvents> = Parameters<LiveServerEvents[E]>[0];
 
 export interface TestSocket {
-  /** Sends an event; resolves with the ack's first argument. */
-  emitWithAck(event: string, ...args: unknown[]): Promise<unknown>;
-  emit(event: string, ...args: unknown[]): void;
-  /** Resolves with the next `event`'s first argument not yet taken (within `timeoutMs`). */
-  next(event: string, timeoutMs?: number): Promise<unknown>;
-  /** Every `event` payload received so far. */
-  received(event: string): unknown[];
+  /** The socket.io-client socket (emit, emitWithAck, on). */
+  readonly socket: LiveSocket;
+  /** Resolves with the next `event`'s payload not yet taken; rejects after `timeoutMs`. */
+  next<E extends keyof LiveServerEvents>(event: E, timeoutMs?: number): Promise<Payload<E>>;
+  /** Every `event` payload received so far, in order. */
+  received<E extends keyof LiveServerEvents>(event: E): Payload<E>[];
   close(): void;
 }
 
-/** Connects to `http://host:port` at path /socket.io with `query`; resolves once connected. */
+/**
+ * Connects socket.io-client to `baseUrl` (path /socket.io, default namespace) with `query`
+ * (e.g. `{ run: id }` joins at the handshake); resolves once connected, rejects on a connect
+ * error. Events are recorded from before the handshake, so a `state` sent at once is kept.
+ *
+ * @param baseUrl - `http://host:port` of the server
+ * @param query - handshake query, default none
+ */
 export async function connectSocketIo(
   baseUrl: string,
   query: Record<string, string> = {},
 ): Promise<TestSocket> {
-  const url = new URL('/socket.io/', baseUrl.replace(/^http/, 'ws'));
-  url.searchParams.set('EIO', '4');
-  url.searchParams.set('transport', 'websocket');
-  for (const [key, value] of Object.entries(query)) url.searchParams.set(key, value);
-  const ws = new WebSocket(url);
+  const socket: LiveSocket = io(baseUrl, {
+    transports: ['websocket'],
+    reconnection: false,
+    // Each test client is its own connection (no multiplexing over a cached Manager).
+    forceNew: true,
+    query,
+  });
   const events = new Map<string, unknown[]>();
   /** Payloads not yet taken by next(). */
   const unread = new Map<string, unknown[]>();
   const waiting = new Map<string, ((payload: unknown) => void)[]>();
-  const acks = new Map<number, (payload: unknown) => void>();
-  let nextAck = 1;
-  const connected = new Promise<void>((resolve, reject) => {
-    ws.on('error', reject);
-    ws.on('message', (data) => {
-      const text = String(data);
-      if (text.startsWith('0')) ws.send('40');
-      else if (text === '2') ws.send('3');
-      else if (text.startsWith('40')) resolve();
-      else if (text.startsWith('44')) reject(new Error(`socket.io connect refused: ${text}`));
-      else if (text.startsWith('42')) {
-        const [event, payload] = JSON.parse(text.slice(2).replace(/^\d+/, '')) as [string, unknown];
-        const list = events.get(event) ?? [];
-        list.push(payload);
-        events.set(event, list);
-        const waiter = waiting.get(event)?.shift();
-        if (waiter !== undefined) waiter(payload);
-        else unread.set(event, [...(unread.get(event) ?? []), payload]);
-      } else if (text.startsWith('43')) {
-        const match = /^43(\d+)(.*)$/s.exec(text);
-        if (match !== null) {
-          const [payload] = JSON.parse(match[2] ?? '[]') as unknown[];
-          acks.get(Number(match[1]))?.(payload);
-        }
-      }
+  socket.onAny((event: string, payload: unknown) => {
+    events.set(event, [...(events.get(event) ?? []), payload]);
+    const waiter = waiting.get(event)?.shift();
+    if (waiter !== undefined) waiter(payload);
+    else unread.set(event, [...(unread.get(event) ?? []), payload]);
+  });
+  await new Promise<void>((resolve, reject) => {
+    socket.once('connect', () => resolve());
+    socket.once('connect_error', (error) => {
+      socket.disconnect();
+      reject(error);
     });
   });
-  await connected;
   return {
-    emitWithAck(event, ...args) {
-      const id = nextAck++;
-      return new Promise((resolve) => {
-        acks.set(id, resolve);
-        ws.send(`42${id}${JSON.stringify([event, ...args])}`);
-      });
-    },
-    emit(event, ...args) {
-      ws.send(`42${JSON.stringify([event, ...args])}`);
-    },
+    socket,
     next(event, timeoutMs = 5000) {
       const queued = unread.get(event);
-      if (queued !== undefined && queued.length > 0) return Promise.resolve(queued.shift());
+      if (queued !== undefined && queued.length > 0)
+        return Promise.resolve(queued.shift() as Payload<typeof event>);
       return new Promise((resolve, reject) => {
         const timer = setTimeout(
           () => reject(new Error(`no ${event} within ${timeoutMs} ms`)),
           timeoutMs,
         );
-        const list = waiting.get(event) ?? [];
-        list.push((payload) => {
-          clearTimeout(timer);
-          resolve(payload);
-        });
-        waiting.set(event, list);
+        waiting.set(event, [
+          ...(waiting.get(event) ?? []),
+          (payload) => {
+            clearTimeout(timer);
+            resolve(payload as Payload<typeof event>);
+          },
+        ]);
       });
     },
-    received: (event) => events.get(event) ?? [],
-    close: () => ws.close(),
+    received: (event) => (events.get(event) ?? []) as Payload<typeof event>[],
+    close: () => void socket.disconnect(),
   };
 }

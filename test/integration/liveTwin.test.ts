@@ -89,7 +89,7 @@ beforeAll(async () => {
   finalState = (await (await fetch(`${base}/api/runs/${runId}/state`)).json()) as RunState;
 
   const pushed = new Map<number, RunState>();
-  for (const state of socket.received('state') as RunState[]) {
+  for (const state of socket.received('state')) {
     if (state?.eventTimeMs != null) pushed.set(state.eventTimeMs, state);
   }
   // The prior: the same engine without assimilation, fed what the archive committed in 5 min batches.
