@@ -79,6 +79,12 @@ export function measureBody(measure: ScenarioMeasure): Record<string, unknown> {
     ...(measure.kind === 'curing-compound' && measure.efficiency !== undefined
       ? { efficiency: measure.efficiency }
       : {}),
+    ...(measure.kind === 'fogging' && measure.relativeHumidity !== undefined
+      ? { relativeHumidity: measure.relativeHumidity }
+      : {}),
+    ...(measure.kind === 'windbreak' && measure.windFactor !== undefined
+      ? { windFactor: measure.windFactor }
+      : {}),
     loggedBy: DEMO_CREW,
     ...(measure.note === undefined ? {} : { note: measure.note }),
   };

@@ -144,9 +144,12 @@ describe('the demo with the measure log "fogging"', () => {
       const logged = (await (
         await fetch(`${demo.baseUrl}/api/runs/${demo.runId}/measures`)
       ).json()) as {
-        measures: { kind: string; loggedBy: string }[];
+        measures: { kind: string; relativeHumidity?: number; windFactor?: number }[];
       };
-      expect(logged.measures.map((measure) => measure.kind)).toEqual(['fogging', 'windbreak']);
+      expect(logged.measures).toMatchObject([
+        { kind: 'fogging', relativeHumidity: 0.95 },
+        { kind: 'windbreak', windFactor: 0.4 },
+      ]);
       expect(printed.filter((line) => line.includes('did not log the measure'))).toEqual([]);
     } finally {
       await demo.server.close();
