@@ -13,6 +13,7 @@ import { checkSpeed } from './playClock.ts';
 import { playScenario } from './playScenario.ts';
 import type { PlayResult } from './playScenario.ts';
 import { DEMO_SCENARIO, loadScenarioFolder } from './scenarioFolder.ts';
+import { api, findOrCreateRun, measureLogger } from './serverRun.ts';
 import { utcOffsetMin } from './scenarioSchema.ts';
 import type { ScenarioMeasure } from './scenarioSchema.ts';
 
@@ -67,28 +68,6 @@ export interface ServerStateSample {
 /** Event time between polls of the server's state, and between progress lines. */
 const STATE_POLL_MS = 10 * 60_000;
 const PRINT_EVERY_MS = 30 * 60_000;
-/** Who the demo logs measures as. */
-const DEMO_CREW = 'Crew lead, level 3 (demo)';
-
-/** A scenario measure as the body of POST /api/runs/:id/measures. */
-export function measureBody(measure: ScenarioMeasure): Record<string, unknown> {
-  return {
-    kind: measure.kind,
-    startAt: measure.startAt,
-    ...(measure.endAt === undefined ? {} : { endAt: measure.endAt }),
-    ...(measure.kind === 'curing-compound' && measure.efficiency !== undefined
-      ? { efficiency: measure.efficiency }
-      : {}),
-    ...(measure.kind === 'fogging' && measure.relativeHumidity !== undefined
-      ? { relativeHumidity: measure.relativeHumidity }
-      : {}),
-    ...(measure.kind === 'windbreak' && measure.windFactor !== undefined
-      ? { windFactor: measure.windFactor }
-      : {}),
-    loggedBy: DEMO_CREW,
-    ...(measure.note === undefined ? {} : { note: measure.note }),
-  };
-}
 
 /**
  * One line comparing the server's warning with the hidden truth: when the truth's margin closed
@@ -158,13 +137,6 @@ function reachableHost(bindHost: string): string {
   return bindHost === '0.0.0.0' || bindHost === '::' ? '127.0.0.1' : bindHost;
 }
 
-async function api(baseUrl: string, path: string, init: RequestInit = {}): Promise<Response> {
-  return fetch(`${baseUrl}/api${path}`, {
-    ...init,
-    headers: { 'content-type': 'application/json', accept: 'application/json' },
-  });
-}
-
 /** Starts the server, creates (or finds) the run and starts the play; see the file comment. */
 export async function startDemo(options: DemoOptions): Promise<DemoRun> {
   const print = options.print ?? ((line: string) => console.log(line));
@@ -181,32 +153,11 @@ export async function startDemo(options: DemoOptions): Promise<DemoRun> {
   const server = await startServer(options.config);
   const baseUrl = `http://${reachableHost(options.config.httpHost)}:${server.httpPort}`;
   try {
-    const listed = (await (await api(baseUrl, '/runs')).json()) as {
-      runs: { id: string; site: string; name: string; placedAt: string; closedAt: string | null }[];
-    };
-    const existing = listed.runs.find(
-      (run) =>
-        run.site === runConfig.site &&
-        run.name === runConfig.name &&
-        Date.parse(run.placedAt) === Date.parse(runConfig.placedAt) &&
-        run.closedAt === null,
-    );
-    let runId: string;
-    if (existing !== undefined) {
-      runId = existing.id;
+    const { runId, existing } = await findOrCreateRun(baseUrl, runConfig, runConfigInput);
+    if (existing) {
       print(
         `Run ${runId} of this scenario is already in the archive: playing into it (readings already stored are kept once).`,
       );
-    } else {
-      const created = await api(baseUrl, '/runs', {
-        method: 'POST',
-        body: JSON.stringify(runConfigInput),
-      });
-      const body = (await created.json()) as { id?: string; error?: unknown };
-      if (created.status !== 201 || body.id === undefined) {
-        throw new Error(`creating the run failed: HTTP ${created.status} ${JSON.stringify(body)}`);
-      }
-      runId = body.id;
     }
     const mqttUrl =
       options.config.mqtt.mode === 'embedded'
@@ -222,23 +173,12 @@ export async function startDemo(options: DemoOptions): Promise<DemoRun> {
     print(
       `  playing     ${durationH} h of event time at ${speed}x (${Math.round((durationH * 60) / speed)} min), measure log "${measureLog}"`,
     );
-    let measureProblemShown = false;
+    const postMeasure = measureLogger(baseUrl, runId, (line) => print(`  ${line}`));
     const logMeasure = async (measure: ScenarioMeasure) => {
       print(
         `  measure     ${measure.kind} from ${measure.startAt}${measure.endAt === undefined ? '' : ` to ${measure.endAt}`}`,
       );
-      const response = await api(baseUrl, `/runs/${runId}/measures`, {
-        method: 'POST',
-        body: JSON.stringify(measureBody(measure)),
-      }).catch((error: unknown) => `${(error as Error).message}`);
-      if (typeof response === 'string' || response.status !== 201) {
-        const why =
-          typeof response === 'string'
-            ? response
-            : `HTTP ${response.status} ${(await response.text()).slice(0, 200)}`;
-        if (!measureProblemShown) print(`  (the server did not log the measure: ${why})`);
-        measureProblemShown = true;
-      }
+      await postMeasure(measure);
     };
     const offsetMin = utcOffsetMin(scenario.startAt);
     let lastPrintMs = 0;

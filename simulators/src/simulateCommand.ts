@@ -1,8 +1,10 @@
 /**
  * Command line of the simulators alone (`node simulators/bin/simulate.js`): plays a scenario
- * against any broker, e.g. a site box's Mosquitto with one password per device. Creates no run:
- * post the scenario's run.json to the server first. Bad flags: exit code 2 and a one-line
- * message on stderr.
+ * against any broker, e.g. a site box's Mosquitto with one password per device. Without
+ * `--server` it creates no run (post the scenario's run.json to the server first); with
+ * `--server <url>` it creates or finds the scenario's run there before playing and logs the
+ * crew's measures on it as they start, as `npm run demo` does. Bad flags: exit code 2 and a
+ * one-line message on stderr.
  */
 import { readFileSync } from 'node:fs';
 import { Command, CommanderError, InvalidArgumentError } from 'commander';
@@ -11,7 +13,9 @@ import { connectDevice } from './mqttDevice.ts';
 import { checkSpeed } from './playClock.ts';
 import { playScenario, probeDepthsMm } from './playScenario.ts';
 import type { DeviceCredentials } from './playScenario.ts';
+import type { ScenarioMeasure } from './scenarioSchema.ts';
 import { DEMO_SCENARIO, loadScenarioFolder } from './scenarioFolder.ts';
+import { findOrCreateRun, measureLogger } from './serverRun.ts';
 import { createStandInTruth } from './standInTruth.ts';
 
 /**
@@ -53,6 +57,22 @@ const seedFlag = (text: string) => {
   return seed;
 };
 
+/** How long `--server` waits for a server that cannot be reached yet (a container still starting), ms. */
+const SERVER_WAIT_MS = 60_000;
+
+const serverFlag = (text: string) => {
+  let url: URL;
+  try {
+    url = new URL(text);
+  } catch {
+    throw new InvalidArgumentError(`server must be an http:// or https:// URL: got ${text}`);
+  }
+  if (url.protocol !== 'http:' && url.protocol !== 'https:') {
+    throw new InvalidArgumentError(`server must be an http:// or https:// URL: got ${text}`);
+  }
+  return text.replace(/\/+$/, '');
+};
+
 /** Runs the simulators; resolves with the exit code. */
 export async function simulateMain(argv: readonly string[]): Promise<number> {
   const program = new Command('simulate')
@@ -78,6 +98,11 @@ export async function simulateMain(argv: readonly string[]): Promise<number> {
       '--passwords <file>',
       'device:password per line; each device logs in with its id as username',
     )
+    .option(
+      '--server <url>',
+      "Meniscus server (http://host:8080): create or find the scenario's run there and log the crew's measures on it",
+      serverFlag,
+    )
     .option('--hostile', 'first send a set of malformed and hostile payloads from the first probe')
     .option(
       '--stand-in-truth',
@@ -97,6 +122,7 @@ export async function simulateMain(argv: readonly string[]): Promise<number> {
     seed?: number;
     durationH?: number;
     passwords?: string;
+    server?: string;
     hostile?: boolean;
     standInTruth?: boolean;
   }>();
@@ -121,6 +147,28 @@ export async function simulateMain(argv: readonly string[]): Promise<number> {
   for (const signal of ['SIGINT', 'SIGTERM'] as const)
     process.once(signal, () => controller.abort());
   try {
+    let onMeasureStart: (measure: ScenarioMeasure) => void | Promise<void> = (measure) =>
+      console.log(`measure ${measure.kind} starts ${measure.startAt}`);
+    if (flags.server !== undefined) {
+      const baseUrl = flags.server;
+      const { runId, existing } = await findOrCreateRun(
+        baseUrl,
+        loaded.runConfig,
+        loaded.runConfigInput,
+        {
+          waitMs: SERVER_WAIT_MS,
+          onWaiting: (why) => console.log(`waiting for the server at ${baseUrl} (${why})`),
+        },
+      );
+      console.log(
+        `${existing ? 'playing into run' : 'created run'} ${runId} on ${baseUrl} (${baseUrl}/api/runs/${runId})`,
+      );
+      const postMeasure = measureLogger(baseUrl, runId, (line) => console.log(line));
+      onMeasureStart = async (measure: ScenarioMeasure) => {
+        console.log(`measure ${measure.kind} starts ${measure.startAt}`);
+        await postMeasure(measure);
+      };
+    }
     if (flags.hostile === true) {
       const probe = scenario.probeStrings[0];
       const sensor = probe?.sensors.find((s) => s.quantity === 'temperature')?.sensor ?? 'unknown';
@@ -153,7 +201,7 @@ export async function simulateMain(argv: readonly string[]): Promise<number> {
         : {}),
       credentialsFor,
       signal: controller.signal,
-      onMeasureStart: (measure) => console.log(`measure ${measure.kind} starts ${measure.startAt}`),
+      onMeasureStart,
     });
     console.log(
       `done: ${result.packsSent} packs sent, ${result.packsDropped} lost on purpose, ${result.packsSilenced} held back by scripted silence`,
