@@ -1,4 +1,5 @@
-# The Meniscus server. Built by docker-compose.yml; runs as the unprivileged `node` user with its
+# The Meniscus server (and the device simulators, which docker-compose.yml's `demo` profile runs
+# from the same image). Built by docker-compose.yml; runs as the unprivileged `node` user with its
 # archive on a volume at /var/lib/meniscus.
 FROM node:20-bookworm-slim
 
@@ -11,6 +12,7 @@ WORKDIR /opt/meniscus
 COPY package.json package-lock.json ./
 RUN npm ci --omit=dev
 COPY server ./server
+COPY simulators ./simulators
 
 RUN mkdir -p /var/lib/meniscus && chown node:node /var/lib/meniscus
 ENV MENISCUS_DATA_DIR=/var/lib/meniscus \

@@ -73,8 +73,27 @@ const serverFlag = (text: string) => {
   return text.replace(/\/+$/, '');
 };
 
-/** Runs the simulators; resolves with the exit code. */
-export async function simulateMain(argv: readonly string[]): Promise<number> {
+/** The simulators' flags after parsing (defaults filled in). */
+export interface SimulateFlags {
+  scenario: string;
+  url: string;
+  speed: number;
+  measures?: string;
+  seed?: number;
+  durationH?: number;
+  passwords?: string;
+  server?: string;
+  hostile?: boolean;
+  standInTruth?: boolean;
+}
+
+/**
+ * Parses the command's arguments (without `node simulate.js`) and checks each flag's value;
+ * reads no file and connects to nothing (docker-compose.yml's test uses it on the demo's command).
+ *
+ * @throws CommanderError for an unknown flag, a bad value (message on stderr) or --help (exit code 0)
+ */
+export function parseSimulateFlags(argv: readonly string[]): SimulateFlags {
   const program = new Command('simulate')
     .exitOverride()
     .configureOutput({ writeErr: (text) => process.stderr.write(text) })
@@ -108,24 +127,19 @@ export async function simulateMain(argv: readonly string[]): Promise<number> {
       '--stand-in-truth',
       'use the simple stand-in instead of the engine (plumbing checks only)',
     );
+  program.parse([...argv], { from: 'user' });
+  return program.opts<SimulateFlags>();
+}
+
+/** Runs the simulators; resolves with the exit code. */
+export async function simulateMain(argv: readonly string[]): Promise<number> {
+  let flags: SimulateFlags;
   try {
-    program.parse([...argv], { from: 'user' });
+    flags = parseSimulateFlags(argv);
   } catch (error) {
     if (error instanceof CommanderError) return error.exitCode === 0 ? 0 : 2;
     throw error;
   }
-  const flags = program.opts<{
-    scenario: string;
-    url: string;
-    speed: number;
-    measures?: string;
-    seed?: number;
-    durationH?: number;
-    passwords?: string;
-    server?: string;
-    hostile?: boolean;
-    standInTruth?: boolean;
-  }>();
   let loaded;
   let passwords = new Map<string, string>();
   try {

@@ -8,6 +8,7 @@ import { existsSync, readFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
 import { parse } from 'yaml';
 import { serverConfigFromEnv } from '../../server/src/config/serverConfig.ts';
+import { parseSimulateFlags } from '../../simulators/src/simulateCommand.ts';
 
 const repo = new URL('../../', import.meta.url);
 const read = (path: string) => readFileSync(new URL(path, repo), 'utf8');
@@ -15,11 +16,16 @@ const read = (path: string) => readFileSync(new URL(path, repo), 'utf8');
 interface ComposeService {
   image?: string;
   build?: string;
+  command?: string[];
+  depends_on?: string[];
   volumes?: string[];
   environment?: Record<string, string | number>;
   profiles?: string[];
 }
 const compose = parse(read('docker-compose.yml')) as { services: Record<string, ComposeService> };
+
+/** Files the compose file mounts that are made on the box, never committed (see its header). */
+const GENERATED = ['./deploy/mosquitto/passwd', './deploy/demo-devices.txt'];
 
 /** Substitutes `${NAME:-default}` and `${NAME:?message}` the way compose does, from `values`. */
 function interpolate(text: string, values: Record<string, string>): string {
@@ -42,8 +48,8 @@ describe('docker-compose.yml', () => {
     expect(compose.services.meniscus?.build).toBe('.');
   });
 
-  it('mounts only files that exist or that make-passwords.sh creates', () => {
-    const generated = new Set(['./deploy/mosquitto/passwd']);
+  it('mounts only files that exist or that are made on the box (make-passwords.sh, the demo devices)', () => {
+    const generated = new Set(GENERATED);
     const binds = Object.values(compose.services)
       .flatMap((service) => service.volumes ?? [])
       .map((volume) => volume.split(':')[0] ?? '')
@@ -68,9 +74,50 @@ describe('docker-compose.yml', () => {
     expect(config.httpHost).toBe('0.0.0.0');
   });
 
+  it('ignores the files made on the box in git', () => {
+    const ignored = read('.gitignore').split('\n');
+    for (const file of GENERATED) expect(ignored, file).toContain(file.slice(2));
+  });
+
   it('stops with a message when a required secret is missing', () => {
     const value = String(compose.services.meniscus?.environment?.MENISCUS_MQTT_PASSWORD);
     expect(() => interpolate(value, {})).toThrow(/MENISCUS_MQTT_PASSWORD/);
+  });
+});
+
+describe('docker-compose.yml, demo profile', () => {
+  const simulators = compose.services.simulators;
+  const argv = simulators?.command ?? [];
+  const flags = parseSimulateFlags(argv.slice(2));
+
+  it('runs the simulators from the server image only under the demo profile', () => {
+    expect(simulators?.profiles).toEqual(['demo']);
+    expect(simulators?.build).toBe(compose.services.meniscus?.build);
+    expect(simulators?.depends_on).toEqual(expect.arrayContaining(['mosquitto', 'meniscus']));
+    for (const [name, service] of Object.entries(compose.services))
+      if (name !== 'simulators') expect(service.profiles, name).toBeUndefined();
+  });
+
+  it("starts the simulators' entry point with flags their own parser accepts", () => {
+    expect(argv.slice(0, 2)).toEqual(['node', 'simulators/bin/simulate.js']);
+    expect(existsSync(new URL(argv[1] ?? '', repo))).toBe(true);
+    expect(flags).toMatchObject({
+      url: 'mqtt://mosquitto:1883',
+      server: 'http://meniscus:8080',
+      passwords: '/run/demo-devices.txt',
+    });
+  });
+
+  it('points the simulators at the broker and server services, and the server port they serve', () => {
+    const names = Object.keys(compose.services);
+    expect(names).toContain(new URL(flags.url).hostname);
+    const server = new URL(flags.server ?? '');
+    expect(server.hostname).toBe('meniscus');
+    expect(server.port).toBe(String(compose.services.meniscus?.environment?.MENISCUS_HTTP_PORT));
+  });
+
+  it('mounts the generated passwords file where --passwords reads it', () => {
+    expect(simulators?.volumes).toContain(`./deploy/demo-devices.txt:${flags.passwords}:ro`);
   });
 });
 
@@ -80,7 +127,9 @@ describe('deployment files', () => {
     const copies = [...dockerfile.matchAll(/^COPY (.+) \S+$/gm)].flatMap(
       (m) => m[1]?.split(' ') ?? [],
     );
-    expect(copies).toEqual(expect.arrayContaining(['package.json', 'package-lock.json', 'server']));
+    expect(copies).toEqual(
+      expect.arrayContaining(['package.json', 'package-lock.json', 'server', 'simulators']),
+    );
     for (const source of copies) expect(existsSync(new URL(source, repo)), source).toBe(true);
     const command = /^CMD \["node", "([^"]+)"\]$/m.exec(dockerfile)?.[1];
     expect(command).toBe('server/bin/meniscus-server.js');

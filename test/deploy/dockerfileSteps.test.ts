@@ -2,7 +2,8 @@
  * The Dockerfile's build and start, exercised as plain shell steps (no Docker engine runs on this
  * machine kind): its COPY sources are copied into an empty folder, its `npm` RUN steps run there,
  * and its CMD starts the server with the Dockerfile's ENV (port and data folder moved to the
- * test's own). This proves the image's production-only install is enough to serve.
+ * test's own). This proves the image's production-only install is enough to serve, and, as the
+ * compose file's `demo` profile does, to run the simulators from the same image against it.
  * Skipped step: the apt-get RUN line (python3, make, g++ for the native addon), which this
  * machine already has for `npm ci`.
  */
@@ -66,11 +67,12 @@ it(
     }
     expect(command[0]).toBe('node');
     const httpPort = await freePort();
+    const mqttPort = await freePort();
     environment = {
       ...environment,
       MENISCUS_HTTP_HOST: '127.0.0.1',
       MENISCUS_HTTP_PORT: String(httpPort),
-      MENISCUS_MQTT_PORT: String(await freePort()),
+      MENISCUS_MQTT_PORT: String(mqttPort),
       MENISCUS_DATA_DIR: join(imageDir, 'data'),
     };
     server = spawn(process.execPath, command.slice(1), {
@@ -92,5 +94,35 @@ it(
     expect(health.status).toBe(200);
     const body = (await health.json()) as { archive: { ok: boolean } };
     expect(body.archive.ok).toBe(true);
+
+    // the demo profile's command, three minutes of event time at 120x
+    const simulators = spawn(
+      process.execPath,
+      [
+        'simulators/bin/simulate.js',
+        '--url',
+        `mqtt://127.0.0.1:${mqttPort}`,
+        '--server',
+        `http://127.0.0.1:${httpPort}`,
+        '--speed',
+        '120',
+        '--duration-h',
+        '0.05',
+      ],
+      { cwd: imageDir, env: { PATH: process.env.PATH ?? '' }, stdio: ['ignore', 'ignore', 'pipe'] },
+    );
+    let stderr = '';
+    simulators.stderr?.on('data', (chunk: Buffer) => (stderr += chunk.toString()));
+    const code = await new Promise<number | null>((resolve) => simulators.on('exit', resolve));
+    expect(code, stderr).toBe(0);
+    const { runs } = (await (await fetch(`http://127.0.0.1:${httpPort}/api/runs`)).json()) as {
+      runs: { id: string; site: string }[];
+    };
+    const run = runs.find((entry) => entry.site === 'ferngate-deck');
+    expect(run).toBeDefined();
+    const readings = (await (
+      await fetch(`http://127.0.0.1:${httpPort}/api/runs/${run?.id ?? ''}/readings`)
+    ).json()) as { count: number };
+    expect(readings.count).toBeGreaterThan(0);
   },
 );
