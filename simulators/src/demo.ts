@@ -2,7 +2,7 @@
  * `npm run demo`: starts the server (embedded broker and archive, or whatever the MENISCUS_*
  * variables configure, exactly as `npm start`), creates the demo scenario's run over the HTTP
  * API, plays the scenario with the engine as hidden truth, logs the crew's measures over the
- * API as they start, and prints the dashboard URL. The server keeps serving after the play
+ * API as they start, and prints the server's addresses. The server keeps serving after the play
  * until Ctrl-C.
  */
 import type { ServerConfig } from '../../server/src/config/index.ts';
@@ -165,7 +165,7 @@ export async function startDemo(options: DemoOptions): Promise<DemoRun> {
         : options.config.mqtt.url;
     const durationH = options.durationH ?? scenario.durationH;
     print(`Meniscus demo: ${runConfig.name ?? scenario.name}`);
-    print(`  dashboard   ${baseUrl}/`);
+    print(`  server      ${baseUrl}/api/health`);
     print(
       `  run         ${baseUrl}/api/runs/${runId}   (state: ${baseUrl}/api/runs/${runId}/state)`,
     );

@@ -45,8 +45,8 @@ describe('the demo (server, run over HTTP, scenario on the engine truth)', () =>
     rmSync(dataDir, { recursive: true, force: true });
   });
 
-  it('prints the dashboard URL and the run', () => {
-    expect(printed).toContain(`  dashboard   ${demo.baseUrl}/`);
+  it('prints the server address and the run', () => {
+    expect(printed).toContain(`  server      ${demo.baseUrl}/api/health`);
     expect(printed.some((line) => line.includes(`/api/runs/${demo.runId}`))).toBe(true);
   });
 
