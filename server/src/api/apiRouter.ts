@@ -8,7 +8,7 @@ import { parseRunConfig } from '../config/runConfig.ts';
 import { RunLifecycle } from '../runs/runLifecycle.ts';
 import type { Archive } from '../store/archive.ts';
 import type { RunRecord, StoredReading } from '../store/types.ts';
-import { csvLine } from './csv.ts';
+import { stringify } from 'csv-stringify/sync';
 import { HttpError } from './httpError.ts';
 import { parseReadingsQuery } from './readingsQuery.ts';
 import { addRunRoutes } from './runRoutes.ts';
@@ -162,21 +162,20 @@ const CSV_HEADER = [
   'message_id',
 ];
 
+/** Readings as CSV (RFC 4180, CRLF line ends, a header row; null fields empty). */
 function sendCsv(response: Response, run: RunRecord, readings: readonly StoredReading[]): void {
-  let body = csvLine(CSV_HEADER);
-  for (const r of readings) {
-    body += csvLine([
-      new Date(r.eventAtMs).toISOString(),
-      r.device,
-      r.sensor,
-      r.quantity,
-      r.depthMm,
-      r.value,
-      r.unit,
-      new Date(r.receivedAtMs).toISOString(),
-      r.updateIntervalS,
-      r.messageId,
-    ]);
-  }
+  const rows = readings.map((r) => [
+    new Date(r.eventAtMs).toISOString(),
+    r.device,
+    r.sensor,
+    r.quantity,
+    r.depthMm,
+    r.value,
+    r.unit,
+    new Date(r.receivedAtMs).toISOString(),
+    r.updateIntervalS,
+    r.messageId,
+  ]);
+  const body = stringify(rows, { header: true, columns: CSV_HEADER, record_delimiter: 'windows' });
   response.type('text/csv; charset=utf-8').attachment(`readings-${run.id}.csv`).send(body);
 }

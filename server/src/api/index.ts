@@ -1,5 +1,4 @@
 export * from './apiRouter.ts';
-export * from './csv.ts';
 export * from './httpError.ts';
 export * from './readingsQuery.ts';
 export * from './runRoutes.ts';
