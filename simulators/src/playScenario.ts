@@ -18,7 +18,7 @@ import { checkSpeed, realClock } from './playClock.ts';
 import type { PlayClock } from './playClock.ts';
 import { ProbeStringSimulator } from './probeString.ts';
 import { utcOffsetMin } from './scenarioSchema.ts';
-import type { Scenario, ScenarioMeasure } from './scenarioSchema.ts';
+import type { Scenario, ScenarioMeasure, ScenarioWeather } from './scenarioSchema.ts';
 import type { SenmlRecord } from './senmlPack.ts';
 import { WeatherStationSimulator } from './weatherStation.ts';
 import { scriptedWeatherAt } from './weatherScript.ts';
@@ -72,6 +72,30 @@ export function toCuringMeasure(measure: ScenarioMeasure): CuringMeasure {
   };
 }
 
+/**
+ * The weather the hidden truth is exposed to at `timeMs`: the scripted mean weather
+ * ({@link scriptedWeatherAt}, no sensor noise or gusts) with the wind given at the mast's height.
+ *
+ * @param weather - the scenario's weather block
+ * @param timeMs - event time, ms since the Unix epoch
+ * @param utcOffsetMin - local offset from UTC of the scenario, min
+ */
+export function truthWeatherAt(
+  weather: ScenarioWeather,
+  timeMs: number,
+  utcOffsetMin: number,
+): TruthWeather {
+  const scripted = scriptedWeatherAt(weather, timeMs, utcOffsetMin);
+  return {
+    airTemperatureC: scripted.airTemperatureC,
+    relativeHumidityPercent: scripted.relativeHumidityPercent,
+    windAtMastMS: scripted.windMS,
+    mastHeightM: weather.mastHeightM,
+    solarWm2: scripted.solarWm2,
+    rainMmH: scripted.rainMmH,
+  };
+}
+
 /** Every probe depth of a scenario, mm, ascending and unique. */
 export function probeDepthsMm(scenario: Scenario): number[] {
   const depths = scenario.probeStrings.flatMap((probe) => probe.sensors.map((s) => s.depthMm));
@@ -96,18 +120,6 @@ export async function playScenario(options: PlayOptions): Promise<PlayResult> {
   const startMs = Date.parse(scenario.startAt);
   const placedMs = Date.parse(scenario.truth.placedAt);
   const endMs = startMs + (options.durationH ?? scenario.durationH) * 3_600_000;
-  const truthWeather = (timeMs: number): TruthWeather => {
-    const weather = scriptedWeatherAt(scenario.weather, timeMs, offsetMin);
-    return {
-      airTemperatureC: weather.airTemperatureC,
-      relativeHumidityPercent: weather.relativeHumidityPercent,
-      windAtMastMS: weather.windMS,
-      mastHeightM: scenario.weather.mastHeightM,
-      solarWm2: weather.solarWm2,
-      rainMmH: weather.rainMmH,
-    };
-  };
-
   const station = new WeatherStationSimulator(scenario.weather, scenario.seed);
   const probes = scenario.probeStrings.map(
     (spec) => new ProbeStringSimulator(spec, scenario.seed, startMs, scenario.faults),
@@ -148,7 +160,7 @@ export async function playScenario(options: PlayOptions): Promise<PlayResult> {
         const stepEndMs = Math.min(nextMs, truth.timeMs + scenario.truth.stepS * 1000);
         truth.advanceTo(
           stepEndMs,
-          truthWeather(truth.timeMs),
+          truthWeatherAt(scenario.weather, truth.timeMs, offsetMin),
           curingMeasuresActiveAt(measures, truth.timeMs),
         );
       }

@@ -1,6 +1,7 @@
 /**
- * The twin experiment's figures (physics.md 8), computed as the live engine's offline twin test
- * computes them (test/live/twinExperiment.test.ts): the truth's surface stress recovered from its
+ * The twin experiment's figures (physics.md 8), shared by the live engine's offline twin test
+ * (test/live/twinExperiment.test.ts) and the one through MQTT (test/integration/liveTwin.test.ts):
+ * the truth's surface stress recovered from its
  * utilization and margin (fct = margin / (1 - U) where |1 - U| > 0.3, interpolated linearly in
  * time; stress = fct - margin), compared with the calibrated and the prior engine over the
  * hardening phase at the truth's sample times.

@@ -31,8 +31,8 @@ import { loadScenarioFolder } from '../../simulators/src/scenarioFolder.ts';
 import { connectSocketIo } from '../helpers/socketIoClient.ts';
 import type { TestSocket } from '../helpers/socketIoClient.ts';
 import { playTwin } from '../live/twinReadings.ts';
-import { twinFigures } from './_twinMetrics.ts';
-import type { TwinFigures } from './_twinMetrics.ts';
+import { twinFigures } from '../helpers/twinMetrics.ts';
+import type { TwinFigures } from '../helpers/twinMetrics.ts';
 
 const folder = loadScenarioFolder('level3-topping');
 /**

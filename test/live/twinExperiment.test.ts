@@ -22,7 +22,8 @@ import { createRunEngine } from '../../server/src/live/index.ts';
 import type { RunEngineOptions, RunState } from '../../server/src/live/index.ts';
 import { loadScenarioFolder } from '../../simulators/src/scenarioFolder.ts';
 import { playTwin } from './twinReadings.ts';
-import type { TruthSample, TwinRun } from './twinReadings.ts';
+import type { TwinRun } from './twinReadings.ts';
+import { twinFigures } from '../helpers/twinMetrics.ts';
 
 const folder = loadScenarioFolder('level3-topping');
 const OPTIONS: RunEngineOptions = { outlookEveryAnalyses: 1000 };
@@ -45,27 +46,6 @@ function replay(twin: TwinRun, runId: string, options: RunEngineOptions): Map<nu
   return states;
 }
 
-/** Truth surface stress (MPa) at each hardening sample, as explained above. */
-function truthStressMPa(truth: readonly TruthSample[]): Map<number, number> {
-  const anchors = truth
-    .filter((s) => Number.isFinite(s.marginPa) && Math.abs(1 - s.utilization) > 0.3)
-    .map((s) => ({ timeMs: s.timeMs, fctMPa: s.marginPa / 1e6 / (1 - s.utilization) }));
-  const stress = new Map<number, number>();
-  for (const sample of truth) {
-    if (!Number.isFinite(sample.marginPa)) continue;
-    const next = anchors.findIndex((a) => a.timeMs >= sample.timeMs);
-    const b = anchors[next];
-    const a = anchors[next - 1] ?? b;
-    if (a === undefined || b === undefined) continue;
-    const fct =
-      b.timeMs === a.timeMs
-        ? b.fctMPa
-        : a.fctMPa + ((b.fctMPa - a.fctMPa) * (sample.timeMs - a.timeMs)) / (b.timeMs - a.timeMs);
-    stress.set(sample.timeMs, fct - sample.marginPa / 1e6);
-  }
-  return stress;
-}
-
 interface TwinResult {
   runId: string;
   count: number;
@@ -77,24 +57,14 @@ interface TwinResult {
 function twinResult(twin: TwinRun, runId: string): TwinResult {
   const calibrated = replay(twin, runId, OPTIONS);
   const prior = replay(twin, runId, { ...OPTIONS, assimilation: false });
-  let posteriorSum = 0;
-  let priorSum = 0;
-  let covered = 0;
-  let count = 0;
-  for (const [timeMs, stress] of truthStressMPa(twin.truth)) {
-    const post = calibrated.get(timeMs);
-    const before = prior.get(timeMs);
-    if (post?.phase !== 'hardening' || post.surfaceStressMPa === null) continue;
-    if (before?.surfaceStressMPa == null || post.nowBands === null) continue;
-    posteriorSum += (post.surfaceStressMPa - stress) ** 2;
-    priorSum += (before.surfaceStressMPa - stress) ** 2;
-    const band = post.nowBands.surfaceStressMPa;
-    if (stress >= band.p05 && stress <= band.p95) covered += 1;
-    count += 1;
-  }
+  const { count, calibratedRmseMPa, priorRmseMPa, rmseRatio, coverage } = twinFigures(
+    twin.truth,
+    calibrated,
+    prior,
+  );
   const last = [...calibrated.values()].at(-1);
   console.info(
-    `twin ${runId}: ${count} hardening samples, stress RMSE calibrated ${Math.sqrt(posteriorSum / count).toFixed(4)} MPa, prior ${Math.sqrt(priorSum / count).toFixed(4)} MPa, ratio ${Math.sqrt(posteriorSum / priorSum).toFixed(3)}, 90 % band coverage ${(covered / count).toFixed(2)}; ` +
+    `twin ${runId}: ${count} hardening samples, stress RMSE calibrated ${calibratedRmseMPa.toFixed(4)} MPa, prior ${priorRmseMPa.toFixed(4)} MPa, ratio ${rmseRatio.toFixed(3)}, 90 % band coverage ${coverage.toFixed(2)}; ` +
       (last?.calibration ?? [])
         .slice(0, 4)
         .map((c) => `${c.name} ${c.mean.toFixed(3)} [${c.p05.toFixed(3)}, ${c.p95.toFixed(3)}]`)
@@ -103,8 +73,8 @@ function twinResult(twin: TwinRun, runId: string): TwinResult {
   return {
     runId,
     count,
-    rmseRatio: Math.sqrt(posteriorSum / priorSum),
-    coverage: covered / count,
+    rmseRatio,
+    coverage,
     last,
   };
 }

@@ -9,8 +9,11 @@
 import { curingMeasuresActiveAt } from '../../server/src/physics/index.ts';
 import type { LiveReading, MeasureEntry } from '../../server/src/live/index.ts';
 import { createEngineTruth } from '../../simulators/src/engineTruth.ts';
-import type { TruthWeather } from '../../simulators/src/hiddenTruth.ts';
-import { probeDepthsMm, toCuringMeasure } from '../../simulators/src/playScenario.ts';
+import {
+  probeDepthsMm,
+  toCuringMeasure,
+  truthWeatherAt,
+} from '../../simulators/src/playScenario.ts';
 import { ProbeStringSimulator } from '../../simulators/src/probeString.ts';
 import type { Scenario } from '../../simulators/src/scenarioSchema.ts';
 import { utcOffsetMin } from '../../simulators/src/scenarioSchema.ts';
@@ -73,17 +76,6 @@ export function playTwin(
   const placedMs = Date.parse(truthSpec.placedAt);
   const endMs = startMs + (options.durationH ?? scenario.durationH) * 3_600_000;
   const sampleMs = (options.sampleEveryS ?? 300) * 1000;
-  const truthWeather = (timeMs: number): TruthWeather => {
-    const weather = scriptedWeatherAt(scenario.weather, timeMs, offsetMin);
-    return {
-      airTemperatureC: weather.airTemperatureC,
-      relativeHumidityPercent: weather.relativeHumidityPercent,
-      windAtMastMS: weather.windMS,
-      mastHeightM: scenario.weather.mastHeightM,
-      solarWm2: weather.solarWm2,
-      rainMmH: weather.rainMmH,
-    };
-  };
   const station = new WeatherStationSimulator(scenario.weather, scenario.seed);
   const probes = scenario.probeStrings.map(
     (spec) => new ProbeStringSimulator(spec, scenario.seed, startMs, scenario.faults),
@@ -101,7 +93,7 @@ export function playTwin(
       const stepEndMs = Math.min(nextMs, truth.timeMs + truthSpec.stepS * 1000);
       truth.advanceTo(
         stepEndMs,
-        truthWeather(truth.timeMs),
+        truthWeatherAt(scenario.weather, truth.timeMs, offsetMin),
         curingMeasuresActiveAt(measures, truth.timeMs),
       );
       if (truth.timeMs === nextSampleMs) {
