@@ -1,16 +1,10 @@
 import { describe, expect, it } from 'vitest';
-import { ValidationError } from '../../server/src/config/formatIssues.ts';
+import { validationIssues } from '../helpers/validationIssues.ts';
 import { parseRunConfig } from '../../server/src/config/runConfig.ts';
 import { exampleRunInput } from '../helpers/exampleRun.ts';
 
 function issuesOf(input: unknown): readonly string[] {
-  try {
-    parseRunConfig(input);
-  } catch (error) {
-    if (error instanceof ValidationError) return error.issues;
-    throw error;
-  }
-  throw new Error('expected a ValidationError');
+  return validationIssues(() => parseRunConfig(input));
 }
 
 describe('parseRunConfig()', () => {

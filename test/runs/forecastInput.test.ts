@@ -1,16 +1,6 @@
 import { describe, expect, it } from 'vitest';
-import { ValidationError } from '../../server/src/config/formatIssues.ts';
+import { validationIssues as issuesOf } from '../helpers/validationIssues.ts';
 import { parseForecast } from '../../server/src/runs/forecastInput.ts';
-
-function issuesOf(action: () => unknown): readonly string[] {
-  try {
-    action();
-  } catch (error) {
-    if (error instanceof ValidationError) return error.issues;
-    throw error;
-  }
-  throw new Error('expected a ValidationError');
-}
 
 describe('parseForecast()', () => {
   it('turns times into ms and keeps only the quantities given', () => {

@@ -1,18 +1,8 @@
 import { describe, expect, it } from 'vitest';
-import { ValidationError } from '../../server/src/config/formatIssues.ts';
+import { validationIssues as issuesOf } from '../helpers/validationIssues.ts';
 import { parseMeasureEnd, parseMeasureStart } from '../../server/src/runs/measureInput.ts';
 
 const NOW_MS = Date.parse('2026-06-14T14:00:00+02:00');
-
-function issuesOf(action: () => unknown): readonly string[] {
-  try {
-    action();
-  } catch (error) {
-    if (error instanceof ValidationError) return error.issues;
-    throw error;
-  }
-  throw new Error('expected a ValidationError');
-}
 
 describe('parseMeasureStart()', () => {
   it('defaults the start to now and the end to still applied', () => {

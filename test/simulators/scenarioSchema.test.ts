@@ -2,7 +2,7 @@ import { readFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
 import { parseRunConfig } from '../../server/src/config/runConfig.ts';
-import { ValidationError } from '../../server/src/config/formatIssues.ts';
+import { validationIssues as issuesOf } from '../helpers/validationIssues.ts';
 import {
   SCENARIOS_DIR,
   loadScenarioFolder,
@@ -15,17 +15,6 @@ const scenarioJson = () =>
   JSON.parse(readFileSync(join(folder, 'scenario.json'), 'utf8')) as Record<string, unknown>;
 const runJson = () =>
   JSON.parse(readFileSync(join(folder, 'run.json'), 'utf8')) as Record<string, unknown>;
-
-/** The one-line issues of a ValidationError thrown by `action`. */
-function issuesOf(action: () => unknown): readonly string[] {
-  try {
-    action();
-  } catch (error) {
-    if (error instanceof ValidationError) return error.issues;
-    throw error;
-  }
-  throw new Error('expected a ValidationError');
-}
 
 describe('the level3-topping scenario folder', () => {
   it("run.json validates against the server's run configuration schema", () => {
