@@ -4,6 +4,10 @@
  * the example run placed at PLACED_MS, received at NOW_MS.
  */
 import fc from 'fast-check';
+import { parseRunConfig } from '../../server/src/config/runConfig.ts';
+import { Ingestor } from '../../server/src/ingest/ingestor.ts';
+import { Archive } from '../../server/src/store/archive.ts';
+import { exampleRunInput } from './exampleRun.ts';
 
 export const NOW_MS = Date.parse('2026-06-14T15:00:00Z');
 export const PLACED_MS = Date.parse('2026-06-14T09:20:00Z');
@@ -211,4 +215,23 @@ export function hostileCases(count: number, seed: number): Case[] {
     expected: 'oversize',
   });
   return cases;
+}
+
+/** The run the cases are built for, and the ingest that receives them. */
+export interface FuzzTarget {
+  /** In-memory archive holding the example run as 'run-1', placed at PLACED_MS. */
+  archive: Archive;
+  /** Real ingest into that archive, its clock fixed at NOW_MS. */
+  ingestor: Ingestor;
+}
+
+/** Opens the in-memory archive with the example run placed at PLACED_MS and an ingestor at NOW_MS. */
+export function openFuzzTarget(): FuzzTarget {
+  const archive = Archive.open(':memory:');
+  archive.createRun(
+    parseRunConfig(exampleRunInput({ placedAt: new Date(PLACED_MS).toISOString() })),
+    PLACED_MS,
+    'run-1',
+  );
+  return { archive, ingestor: new Ingestor(archive, { clock: () => NOW_MS }) };
 }

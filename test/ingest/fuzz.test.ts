@@ -4,23 +4,13 @@
  * reason its construction implies, every valid one stored, and ingest must keep going.
  */
 import { expect, it } from 'vitest';
-import { parseRunConfig } from '../../server/src/config/runConfig.ts';
-import { Ingestor } from '../../server/src/ingest/ingestor.ts';
-import { Archive } from '../../server/src/store/archive.ts';
-import { exampleRunInput } from '../helpers/exampleRun.ts';
-import { NOW_MS, PLACED_MS, hostileCases } from '../helpers/hostilePayloads.ts';
+import { hostileCases, openFuzzTarget } from '../helpers/hostilePayloads.ts';
 
 it(
   'quarantines 10,000+ hostile payloads with the right reason and stores every valid one',
   { timeout: 60_000 },
   async () => {
-    const archive = Archive.open(':memory:');
-    archive.createRun(
-      parseRunConfig(exampleRunInput({ placedAt: new Date(PLACED_MS).toISOString() })),
-      PLACED_MS,
-      'run-1',
-    );
-    const ingestor = new Ingestor(archive, { clock: () => NOW_MS });
+    const { archive, ingestor } = openFuzzTarget();
     const cases = hostileCases(12_000, 20260614);
     const valid = cases.filter((c) => c.expected === 'stored');
 

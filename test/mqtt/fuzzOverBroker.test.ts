@@ -5,13 +5,9 @@
  */
 import mqtt from 'mqtt';
 import { expect, it } from 'vitest';
-import { parseRunConfig } from '../../server/src/config/runConfig.ts';
-import { Ingestor } from '../../server/src/ingest/ingestor.ts';
 import { matchesDataFilter } from '../../server/src/ingest/topics.ts';
 import { startEmbeddedBroker } from '../../server/src/mqtt/embeddedBroker.ts';
-import { Archive } from '../../server/src/store/archive.ts';
-import { exampleRunInput } from '../helpers/exampleRun.ts';
-import { NOW_MS, PLACED_MS, hostileCases } from '../helpers/hostilePayloads.ts';
+import { hostileCases, openFuzzTarget } from '../helpers/hostilePayloads.ts';
 
 /** Topics MQTT itself forbids in PUBLISH (wildcards, empty, NUL) would end the connection, not reach ingest. */
 const publishable = (topic: string) =>
@@ -30,13 +26,7 @@ it(
   'keeps the embedded broker up and acknowledges 2,000 fuzzed payloads, each stored or quarantined as expected',
   { timeout: 60_000 },
   async () => {
-    const archive = Archive.open(':memory:');
-    archive.createRun(
-      parseRunConfig(exampleRunInput({ placedAt: new Date(PLACED_MS).toISOString() })),
-      PLACED_MS,
-      'run-1',
-    );
-    const ingestor = new Ingestor(archive, { clock: () => NOW_MS });
+    const { archive, ingestor } = openFuzzTarget();
     const broker = await startEmbeddedBroker(ingestor, { port: 0 });
     const device = await mqtt.connectAsync(`mqtt://127.0.0.1:${broker.port}`, {
       protocolVersion: 4,
