@@ -6,26 +6,19 @@
  * rule and the value received.
  */
 import { z } from 'zod';
+import {
+  numberBetween,
+  sensorName,
+  topicLevel,
+  weatherSensors,
+} from '../../server/src/config/fieldSchemas.ts';
 import { ValidationError, formatIssues } from '../../server/src/config/index.ts';
 
-const TOPIC_LEVEL = /^[A-Za-z0-9._-]{1,64}$/;
-const SENSOR_NAME = /^[A-Za-z0-9][A-Za-z0-9:./_-]{0,63}$/;
-
+const between = numberBetween;
+const deviceId = topicLevel('device id');
 const isoTime = z.iso.datetime({
   offset: true,
   error: 'must be an ISO 8601 date and time with an offset, e.g. 2026-07-16T11:15:00+02:00',
-});
-const between = (min: number, max: number, unit: string) =>
-  z
-    .number({ error: `must be a number in ${unit}` })
-    .min(min, { error: `must be at least ${min} ${unit}` })
-    .max(max, { error: `must be at most ${max} ${unit}` });
-const deviceId = z.string().regex(TOPIC_LEVEL, {
-  error: "must be a device id of 1 to 64 letters, digits, '.', '_' or '-'",
-});
-const sensorName = z.string().regex(SENSOR_NAME, {
-  error:
-    'must be a sensor name of 1 to 64 characters A-Z a-z 0-9 : . / _ - starting with a letter or digit',
 });
 
 const probeSensorSchema = z.strictObject({
@@ -86,13 +79,7 @@ const weatherSchema = z.strictObject({
   device: deviceId,
   mastHeightM: between(0.1, 50, 'm'),
   intervalS: between(5, 3600, 's').default(60),
-  sensors: z.strictObject({
-    airTemperature: sensorName,
-    relativeHumidity: sensorName,
-    windSpeed: sensorName,
-    solarRadiation: sensorName.optional(),
-    rain: sensorName.optional(),
-  }),
+  sensors: weatherSensors,
   /** Daily cycle: coolest and warmest air, degC, at local hours. */
   airTemperatureMinC: between(-30, 50, 'degC'),
   airTemperatureMaxC: between(-30, 55, 'degC'),

@@ -4,27 +4,8 @@
  * Keys kept stable by architecture.md "Run configuration"; extend freely.
  */
 import { z } from 'zod';
+import { numberBetween, sensorName, topicLevel, weatherSensors } from './fieldSchemas.ts';
 import { ValidationError, formatIssues } from './formatIssues.ts';
-
-/** Ids that appear as one MQTT topic level: letters, digits, `.`, `_`, `-` (no `/`, `+`, `#`). */
-const TOPIC_LEVEL = /^[A-Za-z0-9._-]{1,64}$/;
-/** Sensor names as a SenML name part (RFC 8428 section 4.5.1 characters). */
-const SENSOR_NAME = /^[A-Za-z0-9][A-Za-z0-9:./_-]{0,63}$/;
-
-const topicLevel = (what: string) =>
-  z.string().regex(TOPIC_LEVEL, {
-    error: `must be a ${what} of 1 to 64 letters, digits, '.', '_' or '-'`,
-  });
-const sensorName = z.string().regex(SENSOR_NAME, {
-  error:
-    'must be a sensor name of 1 to 64 characters A-Z a-z 0-9 : . / _ - starting with a letter or digit',
-});
-
-const numberBetween = (min: number, max: number, unit: string) =>
-  z
-    .number({ error: `must be a number in ${unit}` })
-    .min(min, { error: `must be at least ${min} ${unit}` })
-    .max(max, { error: `must be at most ${max} ${unit}` });
 
 /** Kinds of element a run may watch (terms of the trade). */
 export const ELEMENT_KINDS = [
@@ -59,13 +40,7 @@ const weatherSchema = z.strictObject({
   device: topicLevel('device id'),
   /** Height of the anemometer above the element's surface, m (Uno's formula wants 0.5 m). */
   mastHeightM: numberBetween(0.1, 50, 'm'),
-  sensors: z.strictObject({
-    airTemperature: sensorName,
-    relativeHumidity: sensorName,
-    windSpeed: sensorName,
-    solarRadiation: sensorName.optional(),
-    rain: sensorName.optional(),
-  }),
+  sensors: weatherSensors,
 });
 
 /** The zod schema of a run configuration; use parseRunConfig() for messages a person can act on. */
