@@ -10,10 +10,13 @@ import { curingMeasuresActiveAt } from '../../server/src/physics/curingMeasures.
 import { loadMaterialPreset } from '../../server/src/engine/index.ts';
 import { createEngineTruth } from '../../simulators/src/engineTruth.ts';
 import type { HiddenTruth } from '../../simulators/src/hiddenTruth.ts';
-import { probeDepthsMm, toCuringMeasure } from '../../simulators/src/playScenario.ts';
+import {
+  probeDepthsMm,
+  toCuringMeasure,
+  truthWeatherAt,
+} from '../../simulators/src/playScenario.ts';
 import { DEMO_SCENARIO, loadScenarioFolder } from '../../simulators/src/scenarioFolder.ts';
 import { utcOffsetMin } from '../../simulators/src/scenarioSchema.ts';
-import { scriptedWeatherAt } from '../../simulators/src/weatherScript.ts';
 
 const { scenario } = loadScenarioFolder(DEMO_SCENARIO);
 const criticalSuctionPa =
@@ -30,17 +33,9 @@ function playTruth(
   const suctionPa = new Map<number, number>();
   const utilization = new Map<number, number>();
   for (let timeMs = Date.parse(scenario.truth.placedAt); timeMs < untilMs; timeMs += 60_000) {
-    const weather = scriptedWeatherAt(scenario.weather, timeMs, utcOffsetMin(scenario.startAt));
     truth.advanceTo(
       timeMs + 60_000,
-      {
-        airTemperatureC: weather.airTemperatureC,
-        relativeHumidityPercent: weather.relativeHumidityPercent,
-        windAtMastMS: weather.windMS,
-        mastHeightM: scenario.weather.mastHeightM,
-        solarWm2: weather.solarWm2,
-        rainMmH: weather.rainMmH,
-      },
+      truthWeatherAt(scenario.weather, timeMs, utcOffsetMin(scenario.startAt)),
       curingMeasuresActiveAt(measures, timeMs),
     );
     if ((timeMs + 60_000) % 300_000 === 0) {
