@@ -9,27 +9,16 @@
  */
 import { execSync, spawn, type ChildProcess } from 'node:child_process';
 import { cpSync, mkdtempSync, readFileSync, rmSync } from 'node:fs';
-import { createServer } from 'node:net';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { afterAll, expect, it } from 'vitest';
+import { freePort } from '../helpers/freePort.ts';
 
 const repo = new URL('../../', import.meta.url);
 const dockerfile = readFileSync(new URL('Dockerfile', repo), 'utf8').replace(/\\\n\s*/g, ' ');
 
 let imageDir = '';
 let server: ChildProcess | undefined;
-
-async function freePort(): Promise<number> {
-  return new Promise((resolve, reject) => {
-    const probe = createServer();
-    probe.once('error', reject);
-    probe.listen(0, '127.0.0.1', () => {
-      const address = probe.address();
-      probe.close(() => resolve(typeof address === 'object' && address ? address.port : 0));
-    });
-  });
-}
 
 afterAll(() => {
   server?.kill('SIGKILL');

@@ -5,11 +5,11 @@
  */
 import { execFileSync, spawn, type ChildProcess } from 'node:child_process';
 import { chownSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
-import { createServer } from 'node:net';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import mqtt, { type MqttClient } from 'mqtt';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { freePort } from '../helpers/freePort.ts';
 
 const deployDir = new URL('../../deploy/mosquitto/', import.meta.url);
 const users = {
@@ -23,17 +23,6 @@ const password = 'test-only-password';
 let workDir = '';
 let port = 0;
 let broker: ChildProcess | undefined;
-
-async function freePort(): Promise<number> {
-  return new Promise((resolve, reject) => {
-    const server = createServer();
-    server.once('error', reject);
-    server.listen(0, '127.0.0.1', () => {
-      const address = server.address();
-      server.close(() => resolve(typeof address === 'object' && address ? address.port : 0));
-    });
-  });
-}
 
 /** The committed config with the container paths and port replaced by the test's own. */
 function testConfig(): string {

@@ -1,10 +1,16 @@
 import { createServer } from 'node:net';
 import type { AddressInfo } from 'node:net';
 
-/** A TCP port on 127.0.0.1 that was free a moment ago (the OS picks it). */
+/**
+ * A TCP port on 127.0.0.1 that was free a moment ago (the OS picks it): for a server to listen
+ * on, or, where nothing is started on it, an address that refuses connections.
+ */
 export async function freePort(): Promise<number> {
   const server = createServer();
-  await new Promise<void>((resolve) => server.listen(0, '127.0.0.1', resolve));
+  await new Promise<void>((resolve, reject) => {
+    server.once('error', reject);
+    server.listen(0, '127.0.0.1', resolve);
+  });
   const { port } = server.address() as AddressInfo;
   await new Promise<void>((resolve) => server.close(() => resolve()));
   return port;

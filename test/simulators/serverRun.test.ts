@@ -3,10 +3,10 @@
  * broker, archive in a temp folder, HTTP on a free port) and against a port nobody listens on.
  */
 import { mkdtempSync, rmSync } from 'node:fs';
-import { createServer } from 'node:net';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { freePort } from '../helpers/freePort.ts';
 import { serverConfigFromEnv } from '../../server/src/config/serverConfig.ts';
 import { startServer } from '../../server/src/server.ts';
 import type { RunningServer } from '../../server/src/server.ts';
@@ -21,17 +21,6 @@ import {
 
 const { scenario, runConfig, runConfigInput } = loadScenarioFolder('level3-topping');
 const foggingLog = scenario.measureLogs.fogging as ScenarioMeasure[];
-
-async function closedPort(): Promise<number> {
-  return new Promise((resolve, reject) => {
-    const probe = createServer();
-    probe.once('error', reject);
-    probe.listen(0, '127.0.0.1', () => {
-      const address = probe.address();
-      probe.close(() => resolve(typeof address === 'object' && address ? address.port : 0));
-    });
-  });
-}
 
 describe('findOrCreateRun() and measureLogger() on a real server', () => {
   let dataDir: string;
@@ -107,7 +96,7 @@ describe('findOrCreateRun() and measureLogger() on a real server', () => {
 
 describe('findOrCreateRun() without a server', () => {
   it('retries for waitMs, says once that it waits, then names the server', async () => {
-    const baseUrl = `http://127.0.0.1:${await closedPort()}`;
+    const baseUrl = `http://127.0.0.1:${await freePort()}`;
     const waiting: string[] = [];
     const started = performance.now();
     await expect(
@@ -121,7 +110,7 @@ describe('findOrCreateRun() without a server', () => {
   });
 
   it('makes one attempt by default', async () => {
-    const baseUrl = `http://127.0.0.1:${await closedPort()}`;
+    const baseUrl = `http://127.0.0.1:${await freePort()}`;
     const started = performance.now();
     await expect(findOrCreateRun(baseUrl, runConfig, runConfigInput)).rejects.toThrow(
       /cannot be reached/,
