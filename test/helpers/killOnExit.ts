@@ -12,3 +12,14 @@ export function killOnExit(child: ChildProcess): () => void {
   child.once('exit', () => process.off('exit', kill));
   return () => process.off('exit', kill);
 }
+
+/**
+ * Stops `child` with SIGTERM (brokers and databases save their state on it) and resolves when it
+ * has exited; resolves at once for null or a child that has already exited.
+ */
+export async function terminate(child: ChildProcess | null): Promise<void> {
+  if (child === null || child.exitCode !== null) return;
+  const exited = new Promise((resolve) => child.once('exit', resolve));
+  child.kill('SIGTERM');
+  await exited;
+}

@@ -10,7 +10,7 @@ import { chmodSync, mkdtempSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { freePort, waitForPort } from './freePort.ts';
-import { killOnExit } from './killOnExit.ts';
+import { killOnExit, terminate } from './killOnExit.ts';
 import { makeTestCertificates } from './testCertificates.ts';
 import type { TestCertificates } from './testCertificates.ts';
 
@@ -81,10 +81,7 @@ export async function startMosquitto(
   const stop = async () => {
     const running = child;
     child = null;
-    if (running === null || running.exitCode !== null) return;
-    const exited = new Promise((resolve) => running.once('exit', resolve));
-    running.kill('SIGTERM');
-    await exited;
+    await terminate(running);
   };
   await start();
   return {

@@ -10,7 +10,7 @@ import { mkdtempSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { freePort, waitForPort } from './freePort.ts';
-import { killOnExit } from './killOnExit.ts';
+import { killOnExit, terminate } from './killOnExit.ts';
 
 export const VICTORIA_METRICS_BINARY = '/usr/bin/victoria-metrics';
 
@@ -51,10 +51,7 @@ export async function startVictoriaMetrics(): Promise<VictoriaMetrics> {
   const stop = async () => {
     const running = child;
     child = null;
-    if (running === null || running.exitCode !== null) return;
-    const exited = new Promise((resolve) => running.once('exit', resolve));
-    running.kill('SIGTERM');
-    await exited;
+    await terminate(running);
   };
   const exportOnce = async (): Promise<ExportedSeries[]> => {
     await fetch(`${url}/internal/force_flush`);
