@@ -1,7 +1,8 @@
 import { readFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { afterAll, describe, expect, it } from 'vitest';
-import { callCli, fixtureFolder, runCli, runCliJson } from './_runCli.ts';
+import { main } from '../../server/src/cli/main.ts';
+import { callCli, fixtureFolder, runCliJson } from './_runCli.ts';
 
 const folder = fixtureFolder();
 afterAll(() => folder.remove());
@@ -44,6 +45,20 @@ describe('meniscus simulate', () => {
     expect(profiles.map((profile) => profile.timeH)).toEqual([1, 3]);
     expect(profiles[0]?.depthMm.length).toBe(30);
     expect(json.waterLossKgM2).toBeGreaterThan(0);
+  });
+
+  it('--json gives the peak utilization of each phase, and the larger is maxUtilization', async () => {
+    const { json } = await runCliJson([...BASE, ...STEADY, '--hours', '10'], undefined, callCli);
+    const series = json.series as { phase: string; utilization: number }[];
+    const peakOf = (phase: string) =>
+      Math.max(...series.filter((row) => row.phase === phase).map((row) => row.utilization));
+    expect(series.some((row) => row.phase === 'plastic')).toBe(true);
+    expect(series.some((row) => row.phase === 'hardening')).toBe(true);
+    expect(json.maxPlasticUtilization).toBe(peakOf('plastic'));
+    expect(json.maxHardeningUtilization).toBe(peakOf('hardening'));
+    expect(json.maxUtilization).toBe(
+      Math.max(json.maxPlasticUtilization as number, json.maxHardeningUtilization as number),
+    );
   });
 
   it('--target-fcm sets the strength forecast: hours to the target at the end of the run, surface and core', async () => {
@@ -188,29 +203,27 @@ describe('meniscus simulate', () => {
     );
   });
 
-  it('shows progress on stderr for a run over a second while stdout stays one JSON object', async () => {
-    const run = await runCli([
-      'simulate',
-      '--material',
-      'normal-concrete',
-      '--thickness-mm',
-      '200',
-      '--air-temp',
-      '25',
-      '--rh',
-      '50',
-      '--wind',
-      '10',
-      '--hours',
-      '1000',
-      '--cells',
-      '300',
-      '--json',
-    ]);
+  it('shows progress on stderr once a run passes the threshold, while stdout stays one JSON object', async () => {
+    const run = { code: Number.NaN, stdout: '', stderr: '' };
+    run.code = await main(
+      [...BASE, ...STEADY, '--hours', '6', '--json'],
+      {
+        stdout: (text) => void (run.stdout += text),
+        stderr: (text) => void (run.stderr += text),
+      },
+      { cwd: process.cwd(), progressAfterMs: 0 },
+    );
     expect(run.code).toBe(0);
-    expect(run.stderr).toMatch(/simulate: \d+ %/);
+    expect(run.stderr).toMatch(/^simulate: \d+ %$/m);
+    expect(run.stderr).toContain('simulate: 100 %');
     expect(() => JSON.parse(run.stdout) as unknown).not.toThrow();
-  }, 60_000);
+  });
+
+  it('stays quiet on stderr for a run shorter than the threshold', async () => {
+    const run = await callCli([...BASE, ...STEADY, '--hours', '1', '--json']);
+    expect(run.code).toBe(0);
+    expect(run.stderr).toBe('');
+  });
 
   it.each([
     [

@@ -21,6 +21,10 @@ export interface FlagDefinition {
 export interface CommandContext {
   /** Directory relative file paths are read from. */
   readonly cwd: string;
+  /** Where progress lines go (default: the CLI's stderr stream; never stdout). */
+  readonly progress?: (line: string) => void;
+  /** A long command reports progress only once it has run this long, ms (default 1000). */
+  readonly progressAfterMs?: number;
 }
 
 /** A command of the `meniscus` CLI. */

@@ -111,7 +111,7 @@ function addCommand(
   command.option('--json', 'print one JSON object on stdout (numeric keys carry their unit)');
   command.action(async (_options: unknown, invoked: Command) => {
     const flags = new FlagReader(invoked.opts());
-    const report = await definition.run(flags, context);
+    const report = await definition.run(flags, { progress: streams.stderr, ...context });
     streams.stdout(flags.switch('--json') ? renderJson(report) : renderText(report));
   });
 }

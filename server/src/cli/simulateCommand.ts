@@ -163,6 +163,8 @@ async function run(flags: FlagReader, context: CommandContext) {
     options: { cellCount: Math.round(cells) },
   });
   const started = Date.now();
+  const progressAfterMs = context.progressAfterMs ?? 1000;
+  const writeProgress = context.progress ?? ((line: string) => void process.stderr.write(line));
   let lastShown = -1;
   const result = engine.simulateElement({
     model,
@@ -175,9 +177,9 @@ async function run(flags: FlagReader, context: CommandContext) {
     onProgress: (fraction) => {
       // Progress only for runs longer than a second, on stderr so stdout stays parseable.
       const tenth = Math.floor(fraction * 10);
-      if (Date.now() - started > 1000 && tenth > lastShown) {
+      if (Date.now() - started >= progressAfterMs && tenth > lastShown) {
         lastShown = tenth;
-        process.stderr.write(`simulate: ${Math.round(fraction * 100)} %\n`);
+        writeProgress(`simulate: ${Math.round(fraction * 100)} %\n`);
       }
     },
   });
@@ -215,10 +217,21 @@ async function run(flags: FlagReader, context: CommandContext) {
     surfaceHours: forecast?.surfaceHours ?? Number.NaN,
     coreHours: forecast?.coreHours ?? Number.NaN,
   };
+  // The two phases measure different things (suction against air entry before final set, stress
+  // against strength after it), so the readable summary names the phase of each peak.
+  const peakInPhase = (phase: 'plastic' | 'hardening') =>
+    result.series
+      .filter((figures) => figures.phase === phase)
+      .reduce(
+        (peak, figures) => (peak >= figures.utilization ? peak : figures.utilization),
+        Number.NaN,
+      );
   const summary = {
     maxSurfaceStressMPa: result.maxSurfaceStressPa / 1e6,
     minMarginMPa: result.minMarginPa / 1e6,
     maxUtilization: result.maxUtilization,
+    maxPlasticUtilization: peakInPhase('plastic'),
+    maxHardeningUtilization: peakInPhase('hardening'),
     waterLossKgM2: result.waterLossKgM2,
     storageWaterReleasedKgM2: -result.state.transport.storageWaterM * model.liquidDensityKgPerM3,
   };
@@ -248,7 +261,16 @@ async function run(flags: FlagReader, context: CommandContext) {
         rows: [
           ['peak surface stress', formatNumber(summary.maxSurfaceStressMPa, 2), 'MPa'],
           ['smallest margin (hardening phase)', formatNumber(summary.minMarginMPa, 2), 'MPa'],
-          ['peak utilization', formatNumber(summary.maxUtilization, 2), ''],
+          [
+            'peak utilization, plastic phase (suction / air-entry suction)',
+            formatNumber(summary.maxPlasticUtilization, 2),
+            '',
+          ],
+          [
+            'peak utilization, hardening phase (stress / strength)',
+            formatNumber(summary.maxHardeningUtilization, 2),
+            '',
+          ],
           ['water evaporated', formatNumber(summary.waterLossKgM2, 2), 'kg/m2'],
           [
             `hours from the end to ${formatNumber(strengthForecast.targetFcmMPa, 1)} MPa, surface / core`,
