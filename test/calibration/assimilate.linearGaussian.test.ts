@@ -55,27 +55,44 @@ const methods: { name: string; method: AnalysisMethod }[] = [
   { name: 'serial EnSRF', method: { kind: 'serial-ensrf', localisation: null } },
 ];
 
+/**
+ * Runs one analysis without inflation and checks its sample moments against the Kalman update of
+ * the prior's sample moments, to `digits` decimals.
+ */
+function expectExactKalmanUpdate(
+  prior: ReturnType<typeof ensembleOf>,
+  observed: Observation[],
+  operator: ObservationOperator,
+  rows: number[][],
+  method: (typeof methods)[number]['method'],
+  digits: number,
+): void {
+  const forecast = sampleMoments(prior.members.map(augmented));
+  const expected = kalmanPosterior(
+    forecast.mean,
+    forecast.covariance,
+    rows,
+    observed.map((o) => o.value),
+    observed.map((o) => o.errorSd),
+  );
+  const { ensemble } = assimilate(prior, observed, operator, specs, layout, {
+    method,
+    inflation: { kind: 'none' },
+  });
+  const analysis = sampleMoments(ensemble.members.map(augmented));
+  analysis.mean.forEach((value, i) => expect(value).toBeCloseTo(expected.mean[i] ?? NaN, digits));
+  analysis.covariance.forEach((row, i) =>
+    row.forEach((value, j) =>
+      expect(value).toBeCloseTo(expected.covariance[i]?.[j] ?? NaN, digits),
+    ),
+  );
+}
+
 describe.each(methods)('assimilate() with the $name, linear-Gaussian case', ({ method }) => {
   it('updates the sample mean and covariance exactly as the Kalman filter (12 members)', () => {
     const prior = ensembleOf(drawGaussian(priorMean, priorCovariance, 12, createEnsembleRandom(7)));
-    const forecast = sampleMoments(prior.members.map(augmented));
-    const expected = kalmanPosterior(
-      forecast.mean,
-      forecast.covariance,
-      observationMatrix,
-      observations.map((o) => o.value),
-      observations.map((o) => o.errorSd),
-    );
-    const { ensemble } = assimilate(prior, observations, linearOperator, specs, layout, {
-      method,
-      inflation: { kind: 'none' },
-    });
-    const analysis = sampleMoments(ensemble.members.map(augmented));
     // Exact identity up to rounding: 1e-12 absolute on values of order 1e-1..1e-4.
-    analysis.mean.forEach((value, i) => expect(value).toBeCloseTo(expected.mean[i] ?? NaN, 12));
-    analysis.covariance.forEach((row, i) =>
-      row.forEach((value, j) => expect(value).toBeCloseTo(expected.covariance[i]?.[j] ?? NaN, 12)),
-    );
+    expectExactKalmanUpdate(prior, observations, linearOperator, observationMatrix, method, 12);
   });
 
   it('stays exact with more observations than members (5 members, 8 observations)', () => {
@@ -97,23 +114,7 @@ describe.each(methods)('assimilate() with the $name, linear-Gaussian case', ({ m
       },
     };
     const prior = ensembleOf(drawGaussian(priorMean, priorCovariance, 5, createEnsembleRandom(8)));
-    const forecast = sampleMoments(prior.members.map(augmented));
-    const expected = kalmanPosterior(
-      forecast.mean,
-      forecast.covariance,
-      manyRows,
-      manyObservations.map((o) => o.value),
-      manyObservations.map((o) => o.errorSd),
-    );
-    const { ensemble } = assimilate(prior, manyObservations, manyOperator, specs, layout, {
-      method,
-      inflation: { kind: 'none' },
-    });
-    const analysis = sampleMoments(ensemble.members.map(augmented));
-    analysis.mean.forEach((value, i) => expect(value).toBeCloseTo(expected.mean[i] ?? NaN, 11));
-    analysis.covariance.forEach((row, i) =>
-      row.forEach((value, j) => expect(value).toBeCloseTo(expected.covariance[i]?.[j] ?? NaN, 11)),
-    );
+    expectExactKalmanUpdate(prior, manyObservations, manyOperator, manyRows, method, 11);
   });
 
   it('matches the analytic posterior within Monte Carlo error with 2000 members', () => {
