@@ -126,4 +126,14 @@ export const MIGRATIONS: readonly string[] = [
   `
   ALTER TABLE snapshots ADD COLUMN last_seq INTEGER;
   `,
+  // 4: the figures the live engine reported, one row per state update (server/src/store/figureHistory.ts).
+  // Derived, not evidence of readings: a replay of the archive rebuilds them identically.
+  `
+  CREATE TABLE figures (
+    run_id TEXT NOT NULL REFERENCES runs(id),
+    event_time_ms INTEGER NOT NULL,
+    figures_json TEXT NOT NULL,
+    PRIMARY KEY (run_id, event_time_ms)
+  ) STRICT, WITHOUT ROWID;
+  `,
 ];
