@@ -14,6 +14,7 @@ import type { Logger } from 'pino';
 import type { IClientOptions } from 'mqtt';
 import { Server as SocketServer } from 'socket.io';
 import { apiRouter } from './api/apiRouter.ts';
+import { dashboardRoutes } from './api/dashboardRoutes.ts';
 import { errorToHttp } from './api/httpError.ts';
 import { attachLiveSocket, pushState } from './api/liveSocket.ts';
 import type { ServerConfig } from './config/serverConfig.ts';
@@ -57,6 +58,8 @@ export interface StartServerOptions {
   createEngine?: CreateRunEngine;
   /** Options of every run's engine (RunEngineOptions defaults when absent). */
   engineOptions?: RunEngineOptions;
+  /** Folder of the built dashboard [web/dist of the repository; tests build into their own]. */
+  webDir?: string;
 }
 
 export async function startServer(
@@ -159,6 +162,7 @@ export async function startServer(
       }),
     }),
   );
+  app.use(dashboardRoutes(options.webDir));
   app.use(errorToHttp(log));
   const http: Server = await new Promise((resolve, reject) => {
     const server = app.listen(config.httpPort, config.httpHost, (error?: Error) =>
