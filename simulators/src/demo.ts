@@ -165,7 +165,7 @@ export async function startDemo(options: DemoOptions): Promise<DemoRun> {
         : options.config.mqtt.url;
     const durationH = options.durationH ?? scenario.durationH;
     print(`Meniscus demo: ${runConfig.name ?? scenario.name}`);
-    print(`  server      ${baseUrl}/api/health`);
+    print(`  dashboard   ${baseUrl}/runs/${runId}`);
     print(
       `  run         ${baseUrl}/api/runs/${runId}   (state: ${baseUrl}/api/runs/${runId}/state)`,
     );

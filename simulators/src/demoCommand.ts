@@ -84,7 +84,7 @@ export async function demoMain(argv: readonly string[], env: NodeJS.ProcessEnv):
       console.log(
         controller.signal.aborted
           ? `Scenario stopped: ${counts}. Stopping the server.`
-          : `Scenario played: ${counts}. The server keeps running: ${demo.baseUrl}/ (Ctrl-C to stop).`,
+          : `Scenario played: ${counts}. The server keeps running: ${demo.baseUrl}/runs/${demo.runId} (Ctrl-C to stop).`,
       );
     },
     (error: unknown) => console.error(`The scenario stopped: ${(error as Error).message}`),

@@ -45,8 +45,8 @@ describe('the demo (server, run over HTTP, scenario on the engine truth)', () =>
     rmSync(dataDir, { recursive: true, force: true });
   });
 
-  it('prints the server address and the run', () => {
-    expect(printed).toContain(`  server      ${demo.baseUrl}/api/health`);
+  it('prints the dashboard address of the run and its API', () => {
+    expect(printed).toContain(`  dashboard   ${demo.baseUrl}/runs/${demo.runId}`);
     expect(printed.some((line) => line.includes(`/api/runs/${demo.runId}`))).toBe(true);
   });
 
