@@ -198,6 +198,53 @@ describe('LiveHost', () => {
     expect(again.host.state('nope')).toBeNull();
   });
 
+  it('records every state it reaches in the figure history and reports each one in order, also when one catch-up covers many', async () => {
+    const advanced: number[] = [];
+    const r = rig('a.sqlite', {
+      onAdvance: (_runId, state) => advanced.push(state.eventTimeMs ?? Number.NaN),
+    });
+    createRun(r);
+    // Published all at once: the host catches up on many messages in one turn.
+    await Promise.all(Array.from({ length: 12 }, (_, i) => publishMinute(r, i * 5)));
+    await r.host.idle();
+    const history = r.archive.figures.list('run-1');
+    expect(r.states.length).toBeLessThan(r.host.counters.advances);
+    expect(advanced).toHaveLength(r.host.counters.advances);
+    expect(history.map((point) => point.eventTimeMs)).toEqual(advanced);
+    expect([...advanced].sort((a, b) => a - b)).toEqual(advanced);
+    expect(history.at(-1)).toMatchObject({
+      eventTimeMs: r.host.state('run-1')?.eventTimeMs,
+      surfaceStressMPa: r.host.state('run-1')?.surfaceStressMPa,
+      utilization: null,
+    });
+  });
+
+  it("after a crash the figure history of the resumed run equals an uninterrupted twin's, and a closed run replays without reporting", async () => {
+    const crashed = rig('crashed.sqlite');
+    createRun(crashed);
+    await publishMinutes(crashed, 0, 100);
+    await crashed.host.idle();
+    crashed.archive.close();
+    const restarted = rig('crashed.sqlite');
+    await publishMinutes(restarted, 100, 150);
+    await restarted.host.idle();
+
+    const twin = rig('twin.sqlite');
+    createRun(twin);
+    await publishMinutes(twin, 0, 150);
+    await twin.host.idle();
+    expect(restarted.archive.figures.list('run-1')).toEqual(twin.archive.figures.list('run-1'));
+
+    twin.lifecycle.close('run-1', null, null);
+    twin.archive.close();
+    const reported: number[] = [];
+    const reopened = rig('twin.sqlite', {
+      onAdvance: (_runId, state) => reported.push(state.eventTimeMs ?? Number.NaN),
+    });
+    expect(reopened.host.state('run-1')?.eventTimeMs).not.toBeNull();
+    expect(reported).toEqual([]);
+  });
+
   it('close() snapshots every open engine so a clean restart replays nothing', async () => {
     const r = rig('a.sqlite');
     createRun(r);

@@ -9,6 +9,7 @@ import { RunLifecycle } from '../runs/runLifecycle.ts';
 import type { Archive } from '../store/archive.ts';
 import type { RunRecord, StoredReading } from '../store/types.ts';
 import { stringify } from 'csv-stringify/sync';
+import { addFigureRoutes } from './figureRoutes.ts';
 import { HttpError } from './httpError.ts';
 import { parseReadingsQuery } from './readingsQuery.ts';
 import { addRunRoutes } from './runRoutes.ts';
@@ -95,6 +96,7 @@ export function apiRouter(context: ApiContext): Router {
   });
 
   addRunRoutes(router, lifecycle, context.live ?? null);
+  addFigureRoutes(router, archive);
 
   router.use((_request: Request) => {
     throw new HttpError(404, 'no such API route');

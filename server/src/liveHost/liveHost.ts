@@ -33,8 +33,14 @@ export interface LiveHostOptions {
   feedBatch?: number;
   /** Server clock for snapshot times, ms: Date.now. */
   clock?: () => number;
-  /** Called with each new state (socket.io pushes it). */
+  /** Called with the newest state after each catch-up (socket.io pushes it). */
   onState?: (runId: string, state: RunState) => void;
+  /**
+   * Called with every state the engine reaches, in event-time order, including those of a
+   * catch-up after a restart (rules that follow event time need each one). The host itself
+   * records each one in the archive's figure history before calling this.
+   */
+  onAdvance?: (runId: string, state: RunState) => void;
   /** Called when an engine throws; the run keeps its last state. */
   onError?: (runId: string, error: unknown) => void;
 }
@@ -79,6 +85,7 @@ export class LiveHost {
       feedBatch: options.feedBatch ?? 10_000,
       clock: options.clock ?? Date.now,
       onState: options.onState ?? (() => {}),
+      onAdvance: options.onAdvance ?? (() => {}),
       onError: options.onError ?? (() => {}),
     };
   }
@@ -116,7 +123,8 @@ export class LiveHost {
     const run = this.#archive.getRun(runId);
     if (run === null) return null;
     const replayed = this.#restore(run);
-    this.#catchUp(replayed);
+    // A closed run's states were recorded and reported while it was open: replay silently.
+    this.#catchUp(replayed, false);
     const state = replayed.engine.state();
     this.#closedStates.set(runId, state);
     return state;
@@ -224,9 +232,19 @@ export class LiveHost {
     }
   }
 
-  /** Gives the engine the records after its feed's position; the newest state or null. */
-  #catchUp(hosted: Hosted): RunState | null {
-    const fed = hosted.feed.catchUp(this.#options.feedBatch);
+  /**
+   * Gives the engine the records after its feed's position; the newest state or null. With
+   * `report`, every state reached is recorded in the figure history and passed to onAdvance.
+   */
+  #catchUp(hosted: Hosted, report = true): RunState | null {
+    const runId = hosted.run.id;
+    const onAdvance = report
+      ? (state: RunState): void => {
+          this.#archive.figures.record(runId, state);
+          this.#options.onAdvance(runId, state);
+        }
+      : undefined;
+    const fed = hosted.feed.catchUp(this.#options.feedBatch, onAdvance);
     this.counters.advances += fed.advances;
     this.counters.readingsFed += fed.readings;
     return fed.state;

@@ -69,8 +69,13 @@ export class RunFeed {
     }
   }
 
-  /** Gives the engine every record after lastSeq, `pageSize` records per query. */
-  catchUp(pageSize = 10_000): FeedResult {
+  /**
+   * Gives the engine every record after lastSeq, `pageSize` records per query.
+   *
+   * @param onAdvance - called with every state an advance returns, in order (the history of
+   *   figures and the notices need each one, not only the newest of a batch)
+   */
+  catchUp(pageSize = 10_000, onAdvance?: (state: RunState) => void): FeedResult {
     const result: FeedResult = { state: null, advances: 0, readings: 0 };
     for (;;) {
       const items = this.#archive.runFeedAfter(this.#runId, this.lastSeq, pageSize);
@@ -84,6 +89,7 @@ export class RunFeed {
           if (moved !== null) {
             result.state = moved;
             result.advances += 1;
+            onAdvance?.(moved);
           }
         } else if ((MEASURE_EVENT_KINDS as readonly string[]).includes(item.event.kind)) {
           this.#measureEvents.push(item.event);

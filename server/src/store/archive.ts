@@ -12,6 +12,7 @@ import { QUANTITIES, sensorsOfRun } from '../ingest/quantities.ts';
 import { parseDeviceTopic } from '../ingest/topics.ts';
 import type { Quantity } from '../ingest/quantities.ts';
 import { ArchiveQueries } from './archiveQueries.ts';
+import { FigureHistory } from './figureHistory.ts';
 import { openDatabase } from './openDatabase.ts';
 import type { OpenDatabaseOptions } from './openDatabase.ts';
 import type {
@@ -36,9 +37,12 @@ export class Archive extends ArchiveQueries {
   #bindings: Map<string, DeviceBinding[]> | null = null;
   readonly #statements;
   readonly #commitListeners: ((runIds: ReadonlySet<string>) => void)[] = [];
+  /** The history of each run's engine figures (table `figures`). */
+  readonly figures: FigureHistory;
 
   constructor(db: Database.Database) {
     super(db);
+    this.figures = new FigureHistory(db);
     this.#statements = {
       insertRecord: db.prepare(
         'INSERT INTO records (run_id, seq, kind, row_id) VALUES (?, ?, ?, ?)',
