@@ -136,4 +136,46 @@ export const MIGRATIONS: readonly string[] = [
     PRIMARY KEY (run_id, event_time_ms)
   ) STRICT, WITHOUT ROWID;
   `,
+  // 5: crew notices, their deliveries (the outbox of the notice channels) and each run's alert
+  // state (server/src/store/noticeStore.ts, server/src/alerts/). Records of what was sent to whom:
+  // acknowledgements and delivery attempts update them, so they are not append-only.
+  `
+  CREATE TABLE notices (
+    id TEXT PRIMARY KEY,
+    run_id TEXT NOT NULL REFERENCES runs(id),
+    seq INTEGER NOT NULL,
+    level TEXT NOT NULL CHECK (level IN ('NOTE', 'PREPARE', 'ACT NOW', 'CRACKING LIKELY')),
+    kind TEXT NOT NULL,
+    condition_key TEXT NOT NULL,
+    raised_at_ms INTEGER NOT NULL,
+    title TEXT NOT NULL,
+    text TEXT NOT NULL,
+    figures_json TEXT NOT NULL,
+    repeat INTEGER NOT NULL DEFAULT 0,
+    acknowledged_at_ms INTEGER,
+    acknowledged_by TEXT,
+    UNIQUE (run_id, seq)
+  ) STRICT;
+
+  CREATE TABLE notice_deliveries (
+    id INTEGER PRIMARY KEY,
+    notice_id TEXT NOT NULL REFERENCES notices(id),
+    channel TEXT NOT NULL,
+    recipient TEXT NOT NULL,
+    status TEXT NOT NULL CHECK (status IN ('pending', 'sent', 'failed')),
+    attempts INTEGER NOT NULL DEFAULT 0,
+    last_attempt_ms INTEGER,
+    next_attempt_ms INTEGER,
+    error TEXT,
+    UNIQUE (notice_id, channel, recipient)
+  ) STRICT;
+  CREATE INDEX notice_deliveries_due ON notice_deliveries(next_attempt_ms)
+    WHERE next_attempt_ms IS NOT NULL;
+
+  CREATE TABLE alert_states (
+    run_id TEXT PRIMARY KEY REFERENCES runs(id),
+    event_time_ms INTEGER,
+    state_json TEXT NOT NULL
+  ) STRICT;
+  `,
 ];
