@@ -8,7 +8,6 @@
  */
 import { arrheniusAgeFactor, type MaturityOptions } from '../physics/maturity.ts';
 import {
-  hydrationHumidityFactor,
   schindlerFolliardDegreeOfHydration,
   type HydrationHumidityOptions,
 } from '../physics/hydration.ts';
@@ -35,8 +34,13 @@ import type { MaterialPreset } from './materialPreset.ts';
 import { createPoreHydraulics, type PoreHydraulics } from './poreHydraulics.ts';
 import { advanceTransport, type StepControlOptions } from './stepController.ts';
 import { createAgeTable } from './_ageTable.ts';
+import { createHumidityFactorTable } from './_humidityFactorTable.ts';
 import { surfaceHasSet, type StressReference } from './stressReference.ts';
-import { surfaceEvaporation, type SurfaceEvaporationOptions } from './surfaceEvaporation.ts';
+import {
+  surfaceEvaporation,
+  type SurfaceEvaporation,
+  type SurfaceEvaporationOptions,
+} from './surfaceEvaporation.ts';
 
 /** Options of the element model. Every default states its origin. */
 export interface ElementModelOptions {
@@ -177,6 +181,7 @@ export function createElementModel(config: ElementModelConfig): ElementModel {
   const maturityOptions = options.maturity ?? {};
   // One options object for every call (a default parameter would be a new object per call).
   const humidityOptions: HydrationHumidityOptions = {};
+  const surfaceOptions: SurfaceEvaporationOptions = { ...options.surface };
   const waterBefore = new Float64Array(n);
   const targetStorage = new Float64Array(n);
   const targetScale = new Float64Array(n);
@@ -231,19 +236,25 @@ export function createElementModel(config: ElementModelConfig): ElementModel {
     }
   };
 
+  // Pressure scale c_i of every cell before a change of its curve: the pressure that holds the
+  // same saturation under the new scale is p c_old / c_new, the remap's first guess.
+  const scaleBefore = new Float64Array(n);
+
   /**
    * After the water-content curve of cells changed (temperature, refinement, storage), moves
    * their pressures so each cell holds the same water as before: mass is conserved exactly (to
-   * rounding) through the change.
+   * rounding) through the change. `scaleBefore` holds each cell's pressure scale before it.
    */
   const remapPressures = (state: ElementState, onlyMarked = false): void => {
     const pressures = state.transport.pressurePa;
+    const scales = hydraulics.pressureScale;
     for (let i = 0; i < n; i += 1) {
       if (onlyMarked && remapCell[i] === 0) continue;
+      const pressure = pressures[i] as number;
       pressures[i] = hydraulics.pressureForWaterContent(
         i,
         waterBefore[i] as number,
-        pressures[i] as number,
+        (pressure * (scaleBefore[i] as number)) / (scales[i] as number),
       );
     }
   };
@@ -283,10 +294,68 @@ export function createElementModel(config: ElementModelConfig): ElementModel {
     stressReferenceTimeS: material.mix === undefined ? 0 : Number.NaN,
   });
 
+  /** True once the element has reached final set (see stressReference.ts). */
+  const elementHasSet = (state: ElementState): boolean =>
+    surfaceHasSet(material, state.equivalentAgeS[0] ?? 0);
+
+  // Context of the interval being advanced: the surface functions below are built once per
+  // model (a closure made per call costs more than the work of a step under tsx) and read it.
+  let stepState: ElementState | null = null;
+  let evaporation: SurfaceEvaporation | null = null;
+  let bleedRate = 0;
+  let condensationFloor = 0;
+  type Mode = 'covered' | 'film' | 'exposed';
+  let mode: Mode = 'exposed';
+  const mix = material.mix;
+  const outflowFlux = (surfacePressurePa: number): number => {
+    const surface = evaporation as SurfaceEvaporation;
+    const humidity = hydraulics.relativeHumidity(0, Math.min(0, surfacePressurePa));
+    const net = surface.signedRateKgM2s(humidity) - bleedRate;
+    const rate = surface.allowCondensation ? net : Math.max(net, condensationFloor);
+    return rate / liquidDensity;
+  };
+  const outflow: SurfaceCondition = { kind: 'outflow', volumeFluxMs: outflowFlux };
+  const saturatedSurface: SurfaceCondition = { kind: 'pressure', pressurePa: 0 };
+  const surfaceAt = (endS: number): SurfaceCondition => {
+    const surface = evaporation as SurfaceEvaporation;
+    bleedRate = mix !== undefined && endS <= mix.bleedingDurationS ? mix.bleedRateKgM2s : 0;
+    if (surface.heldSaturated) mode = 'covered';
+    else if (
+      (stepState as ElementState).bleedFilmKgM2 > 0 ||
+      (bleedRate > 0 && surface.potentialKgM2s <= bleedRate)
+    )
+      mode = 'film';
+    else mode = 'exposed';
+    return mode === 'exposed' ? outflow : saturatedSurface;
+  };
+  const onStep = (stepS: number, result: { surfaceInflowM: number }): void => {
+    const state = stepState as ElementState;
+    const surface = evaporation as SurfaceEvaporation;
+    const inflowKgM2 = result.surfaceInflowM * liquidDensity;
+    const bled = bleedRate * stepS;
+    const evaporatedBefore = state.evaporatedKgM2;
+    state.bledKgM2 += bled;
+    if (mode === 'covered') {
+      state.coveringUptakeKgM2 += inflowKgM2;
+      state.bleedFilmKgM2 += bled;
+    } else if (mode === 'film') {
+      const film = state.bleedFilmKgM2 + bled - inflowKgM2;
+      const wanted = surface.potentialKgM2s * stepS;
+      const taken = Math.min(Math.max(film, 0), wanted);
+      state.evaporatedKgM2 += taken;
+      state.bleedFilmKgM2 = Math.max(0, film - taken);
+    } else {
+      state.evaporatedKgM2 += bled - inflowKgM2;
+    }
+    state.lastEvaporationKgM2s = (state.evaporatedKgM2 - evaporatedBefore) / stepS;
+    state.lastPotentialEvaporationKgM2s = surface.potentialKgM2s;
+    advanceMaturity(state, stepS);
+  };
+
   const advanceTo = (state: ElementState, timeS: number, inputs: BoundaryInputs): void => {
     checkBoundaryInputs(inputs);
     applyState(state);
-    if (state.stressReferencePa === null && surfaceHasSet(material, state.equivalentAgeS[0] ?? 0)) {
+    if (state.stressReferencePa === null && elementHasSet(state)) {
       // Set, but never recorded (a version 1 snapshot): the placement profile, time unknown.
       state.stressReferencePa = new Float64Array(n);
       state.stressReferenceTimeS = Number.NaN;
@@ -298,6 +367,7 @@ export function createElementModel(config: ElementModelConfig): ElementModel {
     }
     if (temperatureChanged) {
       rememberWater(state);
+      scaleBefore.set(hydraulics.pressureScale);
       state.temperatureK.set(newTemperatureK);
       hydraulics.temperatureK.set(newTemperatureK);
       hydraulics.refreshTemperature();
@@ -307,118 +377,85 @@ export function createElementModel(config: ElementModelConfig): ElementModel {
       const temperature = state.temperatureK[i] as number;
       if (temperature === maturityRateForK[i]) continue;
       maturityRateForK[i] = temperature;
-      maturityRate[i] = arrheniusAgeFactor(kelvinToCelsius(temperature), maturityOptions);
+      // Cells share a handful of temperatures: the neighbour's factor when it has the same one.
+      maturityRate[i] =
+        i > 0 && temperature === maturityRateForK[i - 1]
+          ? (maturityRate[i - 1] as number)
+          : arrheniusAgeFactor(kelvinToCelsius(temperature), maturityOptions);
     }
     const { exposureMultiplier, curingEfficiency } = state.parameters;
-    const activeMeasures =
-      curingEfficiency === null || inputs.activeMeasures === undefined
-        ? inputs.activeMeasures
-        : inputs.activeMeasures.map((measure) =>
-            measure.kind === 'curing-compound'
-              ? { ...measure, efficiency: curingEfficiency }
-              : measure,
-          );
-    const surfaceInputs: BoundaryInputs = { ...inputs };
-    if (activeMeasures !== undefined) surfaceInputs.activeMeasures = activeMeasures;
-    const evaporation = surfaceEvaporation(surfaceInputs, {
-      ...options.surface,
-      exposureMultiplier,
-    });
-    const mix = material.mix;
-    const bleedRateAt = (t: number): number =>
-      mix !== undefined && t <= mix.bleedingDurationS ? mix.bleedRateKgM2s : 0;
-    type Mode = 'covered' | 'film' | 'exposed';
-    let mode: Mode = 'exposed';
-    let bleedRate = 0;
+    let surfaceInputs = inputs;
+    if (curingEfficiency !== null && inputs.activeMeasures !== undefined) {
+      surfaceInputs = {
+        ...inputs,
+        activeMeasures: inputs.activeMeasures.map((measure) =>
+          measure.kind === 'curing-compound'
+            ? { ...measure, efficiency: curingEfficiency }
+            : measure,
+        ),
+      };
+    }
+    surfaceOptions.exposureMultiplier = exposureMultiplier;
+    evaporation = surfaceEvaporation(surfaceInputs, surfaceOptions);
     // The clamp of evaporation at zero (no condensation) has a kink exactly where the surface
     // comes into equilibrium with the air, and Newton cycles across a kink. Inside the solver the
     // rate continues linearly below zero down to -w, with w = 1e-4 of the wet-surface rate: the
     // equilibrium is then a smooth zero crossing, and at most w of water per m2 and second can
     // return to the surface (our assumption, a numerical regularisation of the clamp).
-    const condensationFloor = -1e-4 * Math.abs(evaporation.signedRateKgM2s(1));
-    const outflow = {
-      kind: 'outflow' as const,
-      volumeFluxMs: (surfacePressurePa: number): number => {
-        const humidity = hydraulics.relativeHumidity(0, Math.min(0, surfacePressurePa));
-        const net = evaporation.signedRateKgM2s(humidity) - bleedRate;
-        const rate = evaporation.allowCondensation ? net : Math.max(net, condensationFloor);
-        return rate / liquidDensity;
-      },
-    };
-    const saturatedSurface: SurfaceCondition = { kind: 'pressure', pressurePa: 0 };
-    const surfaceAt = (endS: number): SurfaceCondition => {
-      bleedRate = bleedRateAt(endS);
-      if (evaporation.heldSaturated) mode = 'covered';
-      else if (
-        state.bleedFilmKgM2 > 0 ||
-        (bleedRate > 0 && evaporation.potentialKgM2s <= bleedRate)
-      )
-        mode = 'film';
-      else mode = 'exposed';
-      return mode === 'exposed' ? outflow : saturatedSurface;
-    };
-    const onStep = (stepS: number, result: { surfaceInflowM: number }): void => {
-      const inflowKgM2 = result.surfaceInflowM * liquidDensity;
-      const bled = bleedRate * stepS;
-      const evaporatedBefore = state.evaporatedKgM2;
-      state.bledKgM2 += bled;
-      if (mode === 'covered') {
-        state.coveringUptakeKgM2 += inflowKgM2;
-        state.bleedFilmKgM2 += bled;
-      } else if (mode === 'film') {
-        const film = state.bleedFilmKgM2 + bled - inflowKgM2;
-        const wanted = evaporation.potentialKgM2s * stepS;
-        const taken = Math.min(Math.max(film, 0), wanted);
-        state.evaporatedKgM2 += taken;
-        state.bleedFilmKgM2 = Math.max(0, film - taken);
-      } else {
-        state.evaporatedKgM2 += bled - inflowKgM2;
-      }
-      state.lastEvaporationKgM2s = (state.evaporatedKgM2 - evaporatedBefore) / stepS;
-      state.lastPotentialEvaporationKgM2s = evaporation.potentialKgM2s;
-      advanceMaturity(state, stepS);
-    };
-    advanceTransport(
-      grid,
-      hydraulics,
-      workspace,
-      state.transport,
-      timeS,
-      surfaceAt,
-      stepOptions,
-      onStep,
-    );
+    condensationFloor = -1e-4 * Math.abs(evaporation.signedRateKgM2s(1));
+    stepState = state;
+    try {
+      advanceTransport(
+        grid,
+        hydraulics,
+        workspace,
+        state.transport,
+        timeS,
+        surfaceAt,
+        stepOptions,
+        onStep,
+      );
+    } finally {
+      stepState = null;
+      evaporation = null;
+    }
   };
 
   /**
    * After an accepted step: equivalent age per cell, then the storage and refinement targets of
    * its age; cells whose target moved by more than the update threshold take it, and their
    * pressures move so they keep their water (the water content comes from the step's last
-   * evaluation, which the workspace holds). At the step in which the surface passes final set,
+   * evaluation, which the workspace holds). At the step in which the element passes final set,
    * records the stress reference (after the pressures moved, so the stress is zero right then).
    */
   const advanceMaturity = (state: ElementState, stepS: number): void => {
     updateMaturity(state, stepS);
-    if (state.stressReferencePa === null && surfaceHasSet(material, state.equivalentAgeS[0] ?? 0)) {
+    if (state.stressReferencePa === null && elementHasSet(state)) {
       recordStressReference(hydraulics, state, state.transport.timeS);
     }
   };
 
+  // Hydration humidity factor against x = -p / A = -ln h (see _humidityFactorTable.ts).
+  const humidityFactor = createHumidityFactorTable(humidityOptions);
+  const inverseKelvin = new Float64Array(n);
+
   const updateMaturity = (state: ElementState, stepS: number): void => {
-    const mix = material.mix;
     if (mix === undefined) return;
     const pressures = state.transport.pressurePa;
     const ages = state.equivalentAgeS;
     const storages = state.specificStoragePerPa;
     const scales = state.diameterScale;
+    if (humidityFactorOn) {
+      for (let i = 0; i < n; i += 1) inverseKelvin[i] = hydraulics.inverseKelvinCoefficientPerPa(i);
+    }
     let update = false;
     for (let i = 0; i < n; i += 1) {
       const pressure = pressures[i] as number;
-      const humidityFactor =
-        humidityFactorOn && pressure < 0
-          ? hydrationHumidityFactor(hydraulics.relativeHumidity(i, pressure), humidityOptions)
-          : 1;
-      const age = (ages[i] as number) + stepS * (maturityRate[i] as number) * humidityFactor;
+      let rate = maturityRate[i] as number;
+      if (humidityFactorOn && pressure < 0) {
+        rate *= humidityFactor.at(-pressure * (inverseKelvin[i] as number));
+      }
+      const age = (ages[i] as number) + stepS * rate;
       ages[i] = age;
       targetsAtAge.at(age);
       const storage = targets[0] as number;
@@ -426,8 +463,8 @@ export function createElementModel(config: ElementModelConfig): ElementModel {
       const storageNow = storages[i] as number;
       const scaleNow = scales[i] as number;
       if (
-        Math.abs(storage / storageNow - 1) > threshold ||
-        Math.abs(scale / scaleNow - 1) > threshold
+        Math.abs(storage - storageNow) > threshold * storageNow ||
+        Math.abs(scale - scaleNow) > threshold * scaleNow
       ) {
         targetStorage[i] = storage;
         targetScale[i] = scale;
@@ -441,6 +478,7 @@ export function createElementModel(config: ElementModelConfig): ElementModel {
     }
     if (!update) return;
     waterBefore.set(workspace.water);
+    scaleBefore.set(hydraulics.pressureScale);
     storages.set(targetStorage);
     scales.set(targetScale);
     hydraulics.diameterScale.set(targetScale);

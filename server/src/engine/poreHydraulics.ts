@@ -99,6 +99,8 @@ export interface PoreHydraulics extends CellHydraulics {
   airEntryPressurePa(cell: number): number;
   /** Pore relative humidity of cell i at liquid pressure p (Kelvin), fraction. */
   relativeHumidity(cell: number, pressurePa: number): number;
+  /** 1 / A(T_i) of cell i, 1/Pa: the Kelvin equation is h = exp(p / A). */
+  inverseKelvinCoefficientPerPa(cell: number): number;
 }
 
 /**
@@ -268,6 +270,21 @@ export function createPoreHydraulics(options: PoreHydraulicsOptions): PoreHydrau
       }
       let low = 0; // tableSaturation[low] >= saturation
       let high = lastNode; // tableSaturation[high] < saturation
+      // The remaps after a change of temperature or refinement move a cell's saturation very
+      // little: the segment of the guess holds the answer most of the time, without the search.
+      const guessReference = guessPa * scale;
+      if (guessReference < airEntryRef) {
+        const position = (Math.log(-guessReference) - logStart) * inverseStep;
+        const node = position > 0 ? Math.floor(position) : 0;
+        if (
+          node < lastNode &&
+          (tableSaturation[node] as number) >= saturation &&
+          (tableSaturation[node + 1] as number) < saturation
+        ) {
+          low = node;
+          high = node + 1;
+        }
+      }
       while (high - low > 1) {
         const middle = (low + high) >> 1;
         if ((tableSaturation[middle] as number) >= saturation) low = middle;
@@ -344,6 +361,9 @@ export function createPoreHydraulics(options: PoreHydraulicsOptions): PoreHydrau
 
     airEntryPressurePa(cell) {
       return airEntryRef / (pressureScale[cell] as number);
+    },
+    inverseKelvinCoefficientPerPa(cell) {
+      return inverseKelvin[cell] as number;
     },
     relativeHumidity(cell, pressurePa) {
       // Kelvin: h = exp(p / A(T)) with A cached per cell by refreshTemperature().
