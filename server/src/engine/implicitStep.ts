@@ -83,6 +83,8 @@ export interface StepWorkspace {
   capacityPerturbed: Float64Array;
   conductivityPerturbed: Float64Array;
   conductivitySlope: Float64Array;
+  /** 1 / centre spacing of each face, 1/m (filled by each step). */
+  inverseSpacing: Float64Array;
 }
 
 /** Allocates the workspace of a grid with `cellCount` cells. */
@@ -107,6 +109,7 @@ export function createWorkspace(cellCount: number): StepWorkspace {
     capacityPerturbed: make(),
     conductivityPerturbed: make(),
     conductivitySlope: make(),
+    inverseSpacing: make(),
   };
 }
 
@@ -160,6 +163,10 @@ export function implicitStep(
   for (let i = 0; i < n; i += 1)
     waterHeldM += (widths[i] as number) * Math.abs(waterOld[i] as number);
   iterate.set(pressureOldPa);
+  const inverseStepS = 1 / stepS;
+  const inverseSpacingPerM = workspace.inverseSpacing;
+  for (let face = 0; face < n - 1; face += 1)
+    inverseSpacingPerM[face] = 1 / (spacing[face] as number);
 
   let surfaceInflowM = 0;
   let pendingCheck = false;
@@ -217,30 +224,36 @@ export function implicitStep(
       conductivitySlope.fill(0);
     }
 
-    // Assemble the linear system for the increment delta = p^{m+1} - p^m.
+    // Assemble the linear system for the increment delta = p^{m+1} - p^m in one pass over the
+    // cells: face i (between cells i and i + 1) is added to cell i here and carried to cell
+    // i + 1. a_0 and c_{n-1} are never read by the solver, so they are not written.
+    let carriedDiagonal = 0;
+    let carriedRightHandSide = 0;
     for (let i = 0; i < n; i += 1) {
       const width = widths[i] as number;
-      diagonal[i] = (width * (capacity[i] as number)) / stepS;
-      rightHandSide[i] = -(width * ((water[i] as number) - (waterOld[i] as number))) / stepS;
-      lower[i] = 0;
-      upper[i] = 0;
-    }
-    for (let face = 0; face < n - 1; face += 1) {
-      const conductance =
-        (0.5 * ((conductivity[face] as number) + (conductivity[face + 1] as number))) /
-        (spacing[face] as number);
-      const difference = (iterate[face + 1] as number) - (iterate[face] as number);
-      const flow = conductance * difference;
-      // Newton terms: d(flow)/dp through the face conductivity (zero for Picard).
-      const lever = difference / (2 * (spacing[face] as number));
-      const slopeLeft = lever * (conductivitySlope[face] as number);
-      const slopeRight = lever * (conductivitySlope[face + 1] as number);
-      diagonal[face] = (diagonal[face] as number) + conductance - slopeLeft;
-      diagonal[face + 1] = (diagonal[face + 1] as number) + conductance + slopeRight;
-      upper[face] = -conductance - slopeRight;
-      lower[face + 1] = -conductance + slopeLeft;
-      rightHandSide[face] = (rightHandSide[face] as number) + flow;
-      rightHandSide[face + 1] = (rightHandSide[face + 1] as number) - flow;
+      let diagonalTerm = width * (capacity[i] as number) * inverseStepS + carriedDiagonal;
+      let rightHandSideTerm =
+        -(width * ((water[i] as number) - (waterOld[i] as number))) * inverseStepS +
+        carriedRightHandSide;
+      if (i < n - 1) {
+        const inverseSpacing = inverseSpacingPerM[i] as number;
+        const conductance =
+          0.5 * ((conductivity[i] as number) + (conductivity[i + 1] as number)) * inverseSpacing;
+        const difference = (iterate[i + 1] as number) - (iterate[i] as number);
+        const flow = conductance * difference;
+        // Newton terms: d(flow)/dp through the face conductivity (zero for Picard).
+        const lever = 0.5 * difference * inverseSpacing;
+        const slopeLeft = lever * (conductivitySlope[i] as number);
+        const slopeRight = lever * (conductivitySlope[i + 1] as number);
+        diagonalTerm += conductance - slopeLeft;
+        rightHandSideTerm += flow;
+        upper[i] = -conductance - slopeRight;
+        lower[i + 1] = -conductance + slopeLeft;
+        carriedDiagonal = conductance + slopeRight;
+        carriedRightHandSide = -flow;
+      }
+      diagonal[i] = diagonalTerm;
+      rightHandSide[i] = rightHandSideTerm;
     }
     const surfacePressure = iterate[0] as number;
     let inflowRate: number;
