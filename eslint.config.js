@@ -3,7 +3,7 @@ import globals from 'globals';
 import tseslint from 'typescript-eslint';
 
 export default tseslint.config(
-  { ignores: ['node_modules/', 'dist/', 'data/', 'coverage/', '**/*.py'] },
+  { ignores: ['node_modules/', 'dist/', 'web/dist/', 'data/', 'coverage/', '**/*.py'] },
   js.configs.recommended,
   ...tseslint.configs.strict,
   {
@@ -12,4 +12,6 @@ export default tseslint.config(
       '@typescript-eslint/no-unused-vars': ['error', { argsIgnorePattern: '^_' }],
     },
   },
+  // The dashboard runs in the browser (its vite.config.ts in Node).
+  { files: ['web/src/**/*.ts'], languageOptions: { globals: { ...globals.browser } } },
 );

@@ -1,0 +1,58 @@
+/**
+ * The list of runs: site, element (the run's name), placed at (with its offset), open or
+ * closed, each linking to its page. Open runs first, newest placement first.
+ */
+import { getJson } from '../api.ts';
+import type { RunSummary } from '../contract.ts';
+import { el, replaceChildren } from '../dom.ts';
+import { formatSiteDateTime, formatUtcOffset, siteOffsetMin } from '../siteTime.ts';
+
+/** Open runs first, then by placement, newest first. */
+export function sortRuns(runs: readonly RunSummary[]): RunSummary[] {
+  return [...runs].sort((a, b) => {
+    if (a.status !== b.status) return a.status === 'open' ? -1 : 1;
+    return Date.parse(b.placedAt) - Date.parse(a.placedAt);
+  });
+}
+
+/** Renders the runs list into `root`. */
+export async function showRunsList(root: HTMLElement): Promise<void> {
+  document.title = 'Runs - Meniscus';
+  replaceChildren(root, el('p', { class: 'empty' }, 'Loading runs...'));
+  const answer = await getJson<{ runs: RunSummary[] }>('/runs');
+  const runs = sortRuns(answer?.runs ?? []);
+  if (runs.length === 0) {
+    replaceChildren(
+      root,
+      el('h1', {}, 'Runs'),
+      el(
+        'p',
+        { class: 'empty' },
+        'No runs yet. A run starts when its configuration is posted to /api/runs (see the README), or run `npm run demo`.',
+      ),
+    );
+    return;
+  }
+  replaceChildren(
+    root,
+    el('h1', {}, 'Runs'),
+    el(
+      'ul',
+      { class: 'run-list', id: 'run-list' },
+      ...runs.map((run) => {
+        const offset = siteOffsetMin(run.placedAt);
+        return el(
+          'li',
+          { class: `run-item ${run.status}` },
+          el('a', { href: `/runs/${encodeURIComponent(run.id)}` }, run.name),
+          el(
+            'p',
+            { class: 'detail' },
+            `Site ${run.site} - placed ${formatSiteDateTime(Date.parse(run.placedAt), offset)} (${formatUtcOffset(offset)}) - `,
+            el('strong', {}, run.status === 'open' ? 'open' : 'closed'),
+          ),
+        );
+      }),
+    ),
+  );
+}
