@@ -13,6 +13,7 @@ import { parseDeviceTopic } from '../ingest/topics.ts';
 import type { Quantity } from '../ingest/quantities.ts';
 import { ArchiveQueries } from './archiveQueries.ts';
 import { FigureHistory } from './figureHistory.ts';
+import { NoticeStore } from './noticeStore.ts';
 import { openDatabase } from './openDatabase.ts';
 import type { OpenDatabaseOptions } from './openDatabase.ts';
 import type {
@@ -39,10 +40,13 @@ export class Archive extends ArchiveQueries {
   readonly #commitListeners: ((runIds: ReadonlySet<string>) => void)[] = [];
   /** The history of each run's engine figures (table `figures`). */
   readonly figures: FigureHistory;
+  /** Crew notices, their deliveries and each run's alert state (server/src/alerts/). */
+  readonly notices: NoticeStore;
 
   constructor(db: Database.Database) {
     super(db);
     this.figures = new FigureHistory(db);
+    this.notices = new NoticeStore(db);
     this.#statements = {
       insertRecord: db.prepare(
         'INSERT INTO records (run_id, seq, kind, row_id) VALUES (?, ?, ?, ?)',

@@ -1,0 +1,173 @@
+/**
+ * Crew notices of every run, end to end: each state a run's engine reaches (in event-time
+ * order, from the live host's onAdvance) goes through the rules and the run's alert state; each
+ * notice decided is written with its text and one pending delivery per channel and recipient,
+ * together with the alert state after it, in one transaction; then it is announced (socket.io,
+ * the demo's terminal) and the outbox sends it. Acknowledgements come from the API.
+ *
+ * A replay after a restart feeds states the alert state has already taken (the engine resumes
+ * from its last snapshot): they are recognised by their event time and raise nothing.
+ */
+import type { RunRecord } from '../store/types.ts';
+import type { Archive } from '../store/archive.ts';
+import type { RunState } from '../live/types.ts';
+import { parseAlertOptions } from './alertOptions.ts';
+import type { AlertOptions, AlertOptionsInput } from './alertOptions.ts';
+import { AlertState } from './alertState.ts';
+import type { NoticeChannel } from './channels/noticeChannel.ts';
+import { NoticeOutbox } from './noticeOutbox.ts';
+import type { NoticeOutboxOptions } from './noticeOutbox.ts';
+import { noticeRules } from './noticeRules.ts';
+import { noticeText } from './noticeText.ts';
+import type { Notice } from './types.ts';
+
+export interface CrewNoticesOptions {
+  /** Rules, hysteresis and repeat options (defaults of alertOptions.ts); validated here. */
+  alertOptions?: AlertOptionsInput;
+  /** The channels notices go out on [none: notices are only stored and announced]. */
+  channels?: readonly NoticeChannel[];
+  /** Wall clock for deliveries and acknowledgements, ms [Date.now]. */
+  clock?: () => number;
+  /** Told of each new or acknowledged notice (socket.io pushes it). */
+  onNotice?: (notice: Notice) => void;
+  /** Told when a state could not be turned into notices (the engine carries on). */
+  onError?: (runId: string, error: unknown) => void;
+  /** Options of the outbox (attempts, backoff, polling). */
+  outbox?: Omit<NoticeOutboxOptions, 'clock'>;
+}
+
+/** See the file comment. */
+export class CrewNotices {
+  readonly #archive: Archive;
+  readonly #options: AlertOptions;
+  readonly #clock: () => number;
+  readonly #onNotice: (notice: Notice) => void;
+  readonly #onError: (runId: string, error: unknown) => void;
+  readonly #states = new Map<string, { run: RunRecord; alert: AlertState }>();
+  readonly outbox: NoticeOutbox;
+
+  constructor(archive: Archive, options: CrewNoticesOptions = {}) {
+    this.#archive = archive;
+    this.#options = parseAlertOptions(options.alertOptions ?? {});
+    this.#clock = options.clock ?? Date.now;
+    this.#onNotice = options.onNotice ?? (() => {});
+    this.#onError = options.onError ?? (() => {});
+    this.outbox = new NoticeOutbox(archive.notices, options.channels ?? [], {
+      ...options.outbox,
+      clock: this.#clock,
+    });
+  }
+
+  /** Starts the outbox's polling (retries and deliveries left pending by a restart). */
+  start(): void {
+    this.outbox.start();
+    void this.outbox.flush().catch(() => undefined);
+  }
+
+  /**
+   * Takes a state of a run's engine; returns the notices it raised (already stored). Never
+   * throws: a failure is reported to onError and the run's alert state reloaded from the archive.
+   */
+  onState(runId: string, state: RunState): Notice[] {
+    if (state.eventTimeMs === null) return [];
+    const eventTimeMs = state.eventTimeMs;
+    try {
+      const hosted = this.#hosted(runId);
+      if (hosted === null) return [];
+      const { run, alert } = hosted;
+      const store = this.#archive.notices;
+      const lastTaken = alert.lastEventTimeMs;
+      if (lastTaken !== null && eventTimeMs <= lastTaken) return [];
+      const findings = noticeRules(state, run.config, this.#options);
+      const notices = store.transaction(() => {
+        const drafts = alert.update(findings, eventTimeMs, (id) => store.isAcknowledged(id));
+        const stored = drafts.map((draft) => {
+          const { title, text } = noticeText(draft, {
+            config: run.config,
+            phase: state.phase,
+            dwellMin: this.#options.dwellMin,
+          });
+          const notice = store.add(
+            {
+              runId,
+              level: draft.level,
+              kind: draft.kind,
+              conditionKey: draft.conditionKey,
+              raisedAtMs: draft.raisedAtMs,
+              title,
+              text,
+              figures: draft.figures,
+              repeat: draft.repeat,
+            },
+            this.#deliveriesFor(run),
+            this.#clock(),
+          );
+          alert.noticeSent(draft.conditionKey, notice.id, draft.kind);
+          return notice;
+        });
+        store.saveAlertState(runId, alert.snapshot());
+        return stored;
+      });
+      for (const notice of notices) this.#onNotice(notice);
+      if (notices.length > 0) void this.outbox.flush().catch(() => undefined);
+      return notices;
+    } catch (error) {
+      this.#states.delete(runId);
+      this.#onError(runId, error);
+      return [];
+    }
+  }
+
+  /** The run's notices, newest first. */
+  list(runId: string): Notice[] {
+    return this.#archive.notices.list(runId);
+  }
+
+  /** One notice of a run, or null. */
+  get(runId: string, noticeId: string): Notice | null {
+    return this.#archive.notices.get(runId, noticeId);
+  }
+
+  /**
+   * Acknowledges a notice (the first acknowledgement stands) and announces it; null when the
+   * run has no such notice.
+   */
+  acknowledge(runId: string, noticeId: string, by: string): Notice | null {
+    const notice = this.#archive.notices.acknowledge(runId, noticeId, by, this.#clock());
+    if (notice !== null) this.#onNotice(notice);
+    return notice;
+  }
+
+  /** Outbox counters, for /api/health. */
+  health(): { ok: boolean; channels: string[] } & NoticeOutbox['counters'] {
+    return {
+      ok: true,
+      channels: this.outbox.channels.map((channel) => channel.name),
+      ...this.outbox.counters,
+    };
+  }
+
+  /** Stops the outbox and closes the channels. */
+  close(): Promise<void> {
+    return this.outbox.close();
+  }
+
+  #hosted(runId: string): { run: RunRecord; alert: AlertState } | null {
+    const known = this.#states.get(runId);
+    if (known !== undefined) return known;
+    const run = this.#archive.getRun(runId);
+    if (run === null) return null;
+    const hosted = {
+      run,
+      alert: new AlertState(this.#options, this.#archive.notices.alertState(runId)),
+    };
+    this.#states.set(runId, hosted);
+    return hosted;
+  }
+
+  #deliveriesFor(run: RunRecord): { channel: string; recipient: string }[] {
+    return this.outbox.channels.flatMap((channel) =>
+      channel.recipients(run).map((recipient) => ({ channel: channel.name, recipient })),
+    );
+  }
+}

@@ -1,0 +1,145 @@
+/**
+ * The outbox of crew notices: works through the archive's due deliveries, sends each over its
+ * channel, and records every attempt (status, attempts, last error). A failed attempt is tried
+ * again after a backoff that doubles up to a cap, at most `maxAttempts` times; a channel that
+ * fails never holds up the others (each delivery is sent on its own) nor the engine (sending runs
+ * on the event loop after the notice is committed). Times are wall-clock (deliveries happen in
+ * the real world); the clock is injected so retries are tested without waiting.
+ */
+import type { NoticeStore } from '../store/noticeStore.ts';
+import type { NoticeChannel } from './channels/noticeChannel.ts';
+
+export interface NoticeOutboxOptions {
+  /** Wall clock, ms since the epoch [Date.now]. */
+  clock?: () => number;
+  /** Attempts per delivery before it is given up [5, our assumption]. */
+  maxAttempts?: number;
+  /** Wait before the second attempt, s; doubled for each further one [30, our assumption]. */
+  backoffS?: number;
+  /** Longest wait between attempts, s [600, our assumption]. */
+  maxBackoffS?: number;
+  /** Wall time between looks for due deliveries when started, ms [1000, our assumption]. */
+  pollMs?: number;
+  /** Told of each failed attempt (the server logs it). */
+  onFailure?: (details: {
+    channel: string;
+    recipient: string;
+    noticeId: string;
+    error: string;
+  }) => void;
+}
+
+/**
+ * Wait after the `attempts`-th failed attempt, ms: backoffS * 2^(attempts-1), at most maxBackoffS.
+ */
+export function backoffMs(attempts: number, backoffS: number, maxBackoffS: number): number {
+  return Math.min(maxBackoffS, backoffS * 2 ** Math.max(0, attempts - 1)) * 1000;
+}
+
+/** See the file comment. */
+export class NoticeOutbox {
+  readonly #store: NoticeStore;
+  readonly #channels: Map<string, NoticeChannel>;
+  readonly #options: Required<NoticeOutboxOptions>;
+  #timer: NodeJS.Timeout | null = null;
+  #running: Promise<number> | null = null;
+  /** Counters for /api/health. */
+  readonly counters = { sent: 0, failedAttempts: 0, givenUp: 0 };
+
+  constructor(
+    store: NoticeStore,
+    channels: readonly NoticeChannel[],
+    options: NoticeOutboxOptions = {},
+  ) {
+    this.#store = store;
+    this.#channels = new Map(channels.map((channel) => [channel.name, channel]));
+    this.#options = {
+      clock: options.clock ?? Date.now,
+      maxAttempts: options.maxAttempts ?? 5,
+      backoffS: options.backoffS ?? 30,
+      maxBackoffS: options.maxBackoffS ?? 600,
+      pollMs: options.pollMs ?? 1000,
+      onFailure: options.onFailure ?? (() => {}),
+    };
+  }
+
+  /** The channels by name. */
+  get channels(): readonly NoticeChannel[] {
+    return [...this.#channels.values()];
+  }
+
+  /**
+   * Sends every delivery due now, each on its own; resolves with how many were attempted once
+   * all have settled. Calls while one is running join it.
+   */
+  flush(): Promise<number> {
+    this.#running ??= this.#flushDue().finally(() => {
+      this.#running = null;
+    });
+    return this.#running;
+  }
+
+  /** Looks for due deliveries every `pollMs` of wall time. */
+  start(): void {
+    if (this.#timer !== null) return;
+    this.#timer = setInterval(() => {
+      this.flush().catch((error: unknown) =>
+        this.#options.onFailure({
+          channel: '(outbox)',
+          recipient: '',
+          noticeId: '',
+          error: error instanceof Error ? error.message : String(error),
+        }),
+      );
+    }, this.#options.pollMs);
+    this.#timer.unref();
+  }
+
+  /** Stops polling, waits for a running flush and closes the channels. */
+  async close(): Promise<void> {
+    if (this.#timer !== null) clearInterval(this.#timer);
+    this.#timer = null;
+    await this.#running;
+    await Promise.allSettled([...this.#channels.values()].map((channel) => channel.close?.()));
+  }
+
+  async #flushDue(): Promise<number> {
+    const due = this.#store.due(this.#options.clock());
+    await Promise.all(
+      due.map(async (delivery) => {
+        const channel = this.#channels.get(delivery.channel);
+        let error: string | null = null;
+        try {
+          if (channel === undefined)
+            throw new Error(`channel ${delivery.channel} is not configured on this server`);
+          await channel.send(delivery.notice, delivery.recipient);
+        } catch (caught) {
+          error = caught instanceof Error ? caught.message : String(caught);
+        }
+        const atMs = this.#options.clock();
+        const attempts = delivery.attempts + 1;
+        const retry =
+          error !== null && channel !== undefined && attempts < this.#options.maxAttempts;
+        this.#store.recordAttempt(delivery.deliveryId, {
+          atMs,
+          error,
+          nextAttemptMs: retry
+            ? atMs + backoffMs(attempts, this.#options.backoffS, this.#options.maxBackoffS)
+            : null,
+        });
+        if (error === null) this.counters.sent += 1;
+        else {
+          this.counters.failedAttempts += 1;
+          if (!retry) this.counters.givenUp += 1;
+          this.#options.onFailure({
+            channel: delivery.channel,
+            recipient: delivery.recipient,
+            noticeId: delivery.notice.id,
+            error,
+          });
+        }
+      }),
+    );
+    return due.length;
+  }
+}

@@ -1,0 +1,191 @@
+/**
+ * The words of a crew notice: a one-line title and a plain-language text for a crew lead reading
+ * a phone on site. The level written out, what is happening, what to do now (measures that fit
+ * the phase: before final set fogging, windbreaks and shade; after it wet covering or curing
+ * compound), the key figures with units, the element and site, local times in the run's own
+ * offset, and the caution every output carries (physics.md).
+ */
+import type { RunConfig } from '../config/runConfig.ts';
+import { placedAtMs } from '../config/runConfig.ts';
+import { CAUTION_TEXT } from '../live/caution.ts';
+import type { RunState } from '../live/types.ts';
+import { formatDuration, localClock, localDateTime, offsetMinOf } from './_localTime.ts';
+import type { NoticeDraft, NoticeFigures } from './types.ts';
+
+/** What a text needs besides the draft. */
+export interface NoticeTextContext {
+  config: RunConfig;
+  /** Phase of the state the notice comes from. */
+  phase: RunState['phase'];
+  /** The alert options' dwell, min, for the easing text [30]. */
+  dwellMin?: number;
+}
+
+/** Measures that fit each phase (terms of the trade; common practice, e.g. ACI 308R, ACI 305R). */
+const MEASURES: Record<'plastic' | 'hardening', string> = {
+  plastic:
+    'fog the air just above the surface (a fine mist; do not work water into the surface), put up windbreaks on the windward side, shade the surface from the sun',
+  hardening:
+    'cover the surface with wet burlap or plastic sheeting and keep it wet, or spray a curing compound; keep windbreaks and shade up',
+};
+
+/** What each concern is called in an easing notice. */
+function concernName(conditionKey: string): string {
+  if (conditionKey === 'margin') return 'cracking warning';
+  if (conditionKey === 'drying') return 'fast-drying warning';
+  if (conditionKey.startsWith('sensor:'))
+    return `silent sensor (${conditionKey.split(':')[2] ?? ''})`;
+  if (conditionKey.startsWith('data:')) return 'missing-data warning';
+  return 'notice';
+}
+
+/**
+ * Title and text of a notice.
+ *
+ * Title: `<LEVEL>: <what to do or what happened> - <when or the key figure>`. Text: paragraphs
+ * for where and when, what is happening, what to do now, the figures, and the caution.
+ */
+export function noticeText(
+  draft: NoticeDraft,
+  context: NoticeTextContext,
+): { title: string; text: string } {
+  const { config } = context;
+  const offset = offsetMinOf(config.placedAt);
+  const phase = context.phase === 'hardening' ? 'hardening' : 'plastic';
+  const where = `${config.name ?? `${config.element.kind}, ${config.element.thicknessMm} mm`} (site ${config.site})`;
+  const sincePlacement = draft.raisedAtMs - placedAtMs(config);
+  const when =
+    `${localDateTime(draft.raisedAtMs, offset)}, ${formatDuration(sincePlacement)} after placement at ` +
+    `${localClock(placedAtMs(config), offset)}, ${phase === 'plastic' ? 'before final set' : 'after final set'}.`;
+  const { headline, happening, todo } = wording(draft, phase, offset, context.dwellMin ?? 30);
+  const title = `${draft.level}: ${headline}${draft.repeat ? ' (repeated: not yet acknowledged)' : ''}`;
+  const paragraphs = [
+    `${draft.level} - ${where}`,
+    when,
+    `What is happening: ${sentence(happening)}`,
+    `What to do now: ${sentence(todo)}`,
+    `Figures: ${figureLine(draft.figures, offset, phase)}.`,
+    CAUTION_TEXT,
+  ];
+  return { title, text: paragraphs.join('\n\n') };
+}
+
+/** Capital first letter, full stop at the end. */
+function sentence(text: string): string {
+  const trimmed = text.trim();
+  const capital = trimmed.charAt(0).toUpperCase() + trimmed.slice(1);
+  return /[.!?]$/.test(capital) ? capital : `${capital}.`;
+}
+
+function wording(
+  draft: NoticeDraft,
+  phase: 'plastic' | 'hardening',
+  offset: number,
+  dwellMin: number,
+): { headline: string; happening: string; todo: string } {
+  const reasons = draft.reasons.join('; ');
+  const closing = draft.figures.expectedClosingMs;
+  const closesIn =
+    closing === null
+      ? ''
+      : ` - margin closes at about ${localClock(closing, offset)}, in about ${formatDuration(closing - draft.raisedAtMs)}`;
+  const drying =
+    phase === 'plastic'
+      ? 'the surface is drying faster than water reaches it from below'
+      : 'the surface layer shrinks as it dries while the young concrete is still weak';
+  switch (draft.kind) {
+    case 'utilization':
+    case 'margin-outlook':
+    case 'evaporation-rate':
+    case 'bleed-exceeded': {
+      const happening = `${drying}: ${reasons}`;
+      if (draft.level === 'CRACKING LIKELY') {
+        return {
+          headline: `protect the surface at once${closesIn}`,
+          happening,
+          todo: `at once, ${MEASURES[phase]}. Check the surface for fine cracks and tell the site engineer. Log each measure in Meniscus`,
+        };
+      }
+      if (draft.level === 'ACT NOW') {
+        return {
+          headline: `apply curing protection${closesIn}`,
+          happening,
+          todo: `now, ${MEASURES[phase]}. Log each measure in Meniscus so the outlook counts it`,
+        };
+      }
+      const dryingOnly = draft.kind === 'evaporation-rate' || draft.kind === 'bleed-exceeded';
+      return {
+        headline: dryingOnly
+          ? `get protection ready - ${draft.kind === 'evaporation-rate' ? 'evaporation rate high' : 'bleed water running out'}`
+          : `get curing protection ready${closing === null ? ' - the outlook shows the margin closing' : closesIn}`,
+        happening,
+        todo: `get people and material ready to ${MEASURES[phase]}`,
+      };
+    }
+    case 'sensor-silent':
+      return {
+        headline: `a sensor is silent - ${draft.conditionKey.split(':')[2] ?? ''}`,
+        happening: reasons,
+        todo: 'check the sensor, its cable and its power. Until it reports again the figures lean on the other sensors',
+      };
+    case 'data-degraded':
+      return {
+        headline: 'figures rest on missing data',
+        happening: reasons,
+        todo: 'check the weather station and the probes; trust the figures less until the data is back',
+      };
+    case 'strength-reached':
+      return {
+        headline: 'estimated strength target reached',
+        happening: reasons,
+        todo: 'nothing urgent. Confirm the strength with field-cured specimens or in-place tests before stripping or loading',
+      };
+    case 'measure-logged':
+      return {
+        headline: 'measure logged',
+        happening: reasons,
+        todo: 'nothing; the outlook counts the measure from now on',
+      };
+    case 'eased': {
+      const from = draft.eased?.from ?? 'NOTE';
+      const to = draft.eased?.to ?? null;
+      const name = concernName(draft.conditionKey);
+      return {
+        headline: `eased - the ${name} (${from}) has cleared${to === null ? '' : `; ${to} still holds`}`,
+        happening:
+          `what raised the ${from} ${name} has stayed below its threshold for ${dwellMin} min` +
+          (to === null || reasons === '' ? '' : `. Still: ${reasons}`),
+        todo:
+          draft.conditionKey.startsWith('sensor:') || draft.conditionKey.startsWith('data:')
+            ? 'nothing'
+            : 'keep the measures in place until the site engineer decides; the watch goes on',
+      };
+    }
+  }
+}
+
+function figureLine(
+  figures: NoticeFigures,
+  offset: number,
+  phase: 'plastic' | 'hardening',
+): string {
+  const parts: string[] = [];
+  const u = figures.utilization;
+  if (u !== null) {
+    const of =
+      phase === 'plastic'
+        ? 'surface suction over air-entry suction'
+        : 'surface stress over tensile strength';
+    parts.push(`utilization ${u.toFixed(2)} (${of}; 1 means cracking)`);
+  }
+  if (figures.marginMPa !== null) parts.push(`margin ${figures.marginMPa.toFixed(2)} MPa`);
+  if (figures.evaporationKgM2h !== null)
+    parts.push(`evaporation rate ${figures.evaporationKgM2h.toFixed(2)} kg/m2/h`);
+  if (figures.expectedClosingMs !== null)
+    parts.push(`margin expected to close at ${localClock(figures.expectedClosingMs, offset)}`);
+  if (figures.probabilityCracking !== null)
+    parts.push(
+      `chance of the margin closing within the outlook: ${Math.round(figures.probabilityCracking * 100)} %`,
+    );
+  return parts.length === 0 ? 'none yet' : parts.join(', ');
+}
