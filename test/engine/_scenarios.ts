@@ -54,13 +54,13 @@ export function dailyWeather(days: number): WeatherSample[] {
   return samples;
 }
 
-/** A model of a preset with test-sized options (and, in `config`, e.g. the stress reference). */
+/** A model of a preset with test-sized options (and, in `config`, the stress reference or the setting depth). */
 export function modelOf(
   presetId: string,
   thicknessM: number,
   dryingCase: DryingCase = 'one-face',
   options: ElementModelOptions = {},
-  config: Pick<ElementModelConfig, 'stressReference'> = {},
+  config: Pick<ElementModelConfig, 'stressReference' | 'settingDepthM'> = {},
 ): ElementModel {
   return createElementModel({
     material: loadMaterialPreset(presetId),

@@ -180,11 +180,12 @@ describe('element model behaviour', () => {
     },
   );
 
-  // The stress of a mix counts from final set (stressReference.ts). Harsh drying from placement
-  // dries the mortar's surface before it sets, and the drying stops its hydration (physics.md 6),
-  // so in this model its surface does not reach final set within 24 h (the plastic criterion
-  // governs then). The scenario therefore keeps the surface wet until after final set (about
-  // 2.3 h of event time at 35 degC) and dries it harshly from 6 h on.
+  // The stress of a mix counts from the element's final set (stressReference.ts: its bulk sets).
+  // Harsh drying from placement dries the mortar's surface before set, and the drying stops its
+  // hydration (physics.md 6): the skin has shrunk while the mix could still flow (the plastic
+  // criterion covers that time), so after set the surface is in compression against the drier
+  // bulk and its own strength stays at the floor. The scenario therefore keeps the surface wet
+  // until after final set (about 2.3 h of event time at 35 degC) and dries it harshly from 6 h on.
   it('fine mortar passes its 28-day tensile strength under harsh drying that continues after final set (common practice)', () => {
     const model = modelOf('cement-mortar-fine', 0.05);
     const mortar = run(model, steadyWeather(35, 0.3, 8), 24, [measure('wet-covering', 0, 6)]);

@@ -4,7 +4,11 @@ import { evaluateElement } from '../../server/src/engine/elementFigures.ts';
 import type { ElementModel } from '../../server/src/engine/elementModel.ts';
 import type { ElementState } from '../../server/src/engine/elementState.ts';
 import { loadMaterialPreset } from '../../server/src/engine/materialPreset.ts';
-import { surfaceHasSet } from '../../server/src/engine/stressReference.ts';
+import {
+  defaultSettingDepthM,
+  hasReachedFinalSet,
+  settingCellIndex,
+} from '../../server/src/engine/stressReference.ts';
 import { dryingStressFromEquivalentPressure } from '../../server/src/physics/dryingStress.ts';
 import { HOUR_S, measure, modelOf, run, steadyWeather } from './_scenarios.ts';
 
@@ -27,7 +31,7 @@ function advanceToSet(model: ElementModel, state: ElementState, limitS: number):
 const maxAbs = (values: readonly number[]): number =>
   values.reduce((largest, value) => Math.max(largest, Math.abs(value)), 0);
 
-describe('surfaceHasSet()', () => {
+describe('hasReachedFinalSet()', () => {
   const mortar = elementMaterialFromPreset(loadMaterialPreset('cement-mortar-fine'));
   const stone = elementMaterialFromPreset(loadMaterialPreset('building-stone-coarse'));
   const finalSetS = (mortar.mix?.setting.finalSetEquivalentAgeDays ?? Number.NaN) * DAY_S;
@@ -39,8 +43,91 @@ describe('surfaceHasSet()', () => {
     ['a mix at NaN age', mortar, Number.NaN, false],
     ['a material without a mix, at placement', stone, 0, true],
   ] as const)('%s: %s', (_label, material, ageS, expected) => {
-    expect(surfaceHasSet(material, ageS)).toBe(expected);
+    expect(hasReachedFinalSet(material, ageS)).toBe(expected);
   });
+});
+
+describe('settingCellIndex()', () => {
+  const centresM = Float64Array.from([0.0005, 0.002, 0.006, 0.015, 0.035]);
+
+  it.each([
+    ['the surface', 0, 0],
+    ['a depth between two centres, nearer the deeper one', 0.011, 3],
+    ['a depth on a centre', 0.006, 2],
+    ['a depth beyond the domain (past a symmetry plane): the deepest cell', 0.5, 4],
+  ] as const)('picks the nearest cell centre for %s', (_label, depthM, expected) => {
+    expect(settingCellIndex(centresM, depthM)).toBe(expected);
+  });
+
+  it.each([-0.001, Number.NaN, Number.POSITIVE_INFINITY])(
+    'refuses a setting depth of %s m, naming the field and the value',
+    (depthM) => {
+      expect(() => settingCellIndex(centresM, depthM)).toThrow(
+        new RegExp(`settingDepthM must be a finite depth of 0 m or more: got ${String(depthM)}`),
+      );
+    },
+  );
+
+  it('defaults to mid-thickness: the middle of a one-face slab, the symmetry plane of two-face', () => {
+    expect(defaultSettingDepthM(0.15)).toBe(0.075);
+    const oneFace = modelOf('normal-concrete', 0.15, 'one-face');
+    const twoFace = modelOf('normal-concrete', 0.15, 'two-face');
+    const centre = (model: ElementModel): number => model.grid.centresM[model.settingCell] ?? NaN;
+    const nearestWidth = (model: ElementModel): number =>
+      model.grid.widthsM[model.settingCell] ?? NaN;
+    expect(Math.abs(centre(oneFace) - 0.075)).toBeLessThanOrEqual(nearestWidth(oneFace) / 2);
+    expect(twoFace.settingCell).toBe(twoFace.grid.cellCount - 1);
+  });
+});
+
+describe('the element sets with its bulk, not its surface skin (ASTM C403 is timed on the bulk)', () => {
+  // Harsh drying from placement dries the mortar's surface within minutes, and drying stops its
+  // hydration (physics.md 6): its own equivalent age never reaches final set in 24 h. The bulk
+  // stays wet and sets on time. Arrhenius (ASTM C1074, 40 kJ/mol, reference 20 degC) at 35 degC:
+  // factor exp(40000 / 8.314 (1/293.15 - 1/308.15)) = 2.220 (by hand), so the preset's final set
+  // of 5 h of equivalent age comes at 5 / 2.220 = 2.252 h of event time.
+  const HARSH_35 = steadyWeather(35, 0.3, 8);
+  const expectedSetH = 5 / Math.exp((40000 / 8.314) * (1 / 293.15 - 1 / 308.15));
+
+  it.each([
+    {
+      label: 'the default (mid-depth)',
+      settingDepthM: undefined,
+      phaseAt24h: 'hardening',
+      sets: true,
+    },
+    { label: 'the surface (0 m)', settingDepthM: 0, phaseAt24h: 'plastic', sets: false },
+  ] as const)(
+    'evaluateElement() reports the $phaseAt24h phase at 24 h when the setting depth is $label',
+    ({ settingDepthM, phaseAt24h, sets }) => {
+      const model = modelOf(
+        'cement-mortar-fine',
+        0.05,
+        'one-face',
+        {},
+        settingDepthM === undefined ? {} : { settingDepthM },
+      );
+      const finalSetS = model.material.mix?.finalSetEquivalentAgeS ?? Number.NaN;
+      expect(finalSetS / HOUR_S).toBe(5);
+      const result = run(model, HARSH_35, 24);
+      const last = result.series[result.series.length - 1];
+      expect(result.state.equivalentAgeS[0]).toBeLessThan(finalSetS); // the dried skin
+      expect(last?.phase).toBe(phaseAt24h);
+      expect(model.hasSet(result.state)).toBe(sets);
+      if (sets) {
+        // Recorded in the step that passed the bulk's set (steps of at most 600 s).
+        const setH = result.state.stressReferenceTimeS / HOUR_S;
+        expect(setH).toBeGreaterThanOrEqual(expectedSetH);
+        expect(setH).toBeLessThanOrEqual(expectedSetH + 600 / HOUR_S);
+        // The skin's strength follows its own age: the floor of the setting-shifted law.
+        expect(last?.surfaceTensileStrengthPa).toBeCloseTo(0.01e6, 6);
+        const bulk = last?.profiles.tensileStrengthPa[model.settingCell] ?? Number.NaN;
+        expect(bulk).toBeGreaterThan(100 * (last?.surfaceTensileStrengthPa ?? Number.NaN));
+      } else {
+        expect(result.state.stressReferencePa).toBeNull();
+      }
+    },
+  );
 });
 
 describe('drying stress counted from final set (the default reference)', () => {

@@ -4,7 +4,7 @@
  * with their phase. Composes the physics library; computes no physics of its own.
  *
  * The drying stress is counted from the model's stress reference (stressReference.ts): by default
- * from the equivalent pore pressure profile at the surface's final set, so it is zero before and
+ * from the equivalent pore pressure profile at the element's final set (its bulk sets), so it is zero before and
  * at final set and grows with the drying after it; with 'placement', from the saturated placement.
  */
 import {
@@ -162,11 +162,12 @@ export function evaluateElement(
   };
   const stressProfile = { depthsM: profiles.depthM, weightsM: Array.from(grid.widthsM) };
   const reference = config.stressReference ?? DEFAULT_STRESS_REFERENCE;
-  const surfaceAgeS = state.equivalentAgeS[0] as number;
+  // The element sets with its bulk (the setting depth, stressReference.ts), not its surface skin.
+  const settingAgeS = state.equivalentAgeS[model.settingCell] as number;
   const phase: RiskPhase =
     material.mix === undefined
       ? 'hardening'
-      : riskPhase(surfaceAgeS / SECONDS_PER_DAY, material.mix.setting.finalSetEquivalentAgeDays);
+      : riskPhase(settingAgeS / SECONDS_PER_DAY, material.mix.setting.finalSetEquivalentAgeDays);
   let stressReferenceTimeS = Number.NaN;
   let stress;
   if (reference === 'placement') {

@@ -3,8 +3,9 @@
  * depth, the exposed surface with bleeding and curing measures, maturity, hydration and pore
  * refinement per depth. `advanceTo` is driven by event time; the state is separate from the
  * model so ensemble members share one model and copy only their state. At the step in which the
- * surface reaches final set, the model records the equivalent pore pressure profile in the state:
- * the stress-free reference from which the drying stress is counted (stressReference.ts).
+ * element reaches final set (its bulk, at the setting depth), the model records the equivalent
+ * pore pressure profile in the state: the stress-free reference from which the drying stress is
+ * counted (stressReference.ts).
  */
 import { arrheniusAgeFactor, type MaturityOptions } from '../physics/maturity.ts';
 import {
@@ -35,7 +36,12 @@ import { createPoreHydraulics, type PoreHydraulics } from './poreHydraulics.ts';
 import { advanceTransport, type StepControlOptions } from './stepController.ts';
 import { createAgeTable } from './_ageTable.ts';
 import { createHumidityFactorTable } from './_humidityFactorTable.ts';
-import { surfaceHasSet, type StressReference } from './stressReference.ts';
+import {
+  defaultSettingDepthM,
+  hasReachedFinalSet,
+  settingCellIndex,
+  type StressReference,
+} from './stressReference.ts';
 import {
   surfaceEvaporation,
   type SurfaceEvaporation,
@@ -92,8 +98,15 @@ export interface ElementModelConfig {
   /** External restraint degree for 'restrained', 0..1, default 1 (our assumption, upper bound). */
   restraintDegree?: number;
   /**
+   * Depth below the exposed surface whose equivalent age decides when the element sets (the
+   * phase of the risk figures and the moment of the stress reference), m; default half the
+   * thickness (stressReference.ts: ASTM C403 times setting on mortar of the bulk; our
+   * assumption for the depth). Strength at each depth still follows that depth's own age.
+   */
+  settingDepthM?: number;
+  /**
    * Where the drying stress is counted from (stressReference.ts), default 'final-set': the
-   * equivalent pore pressure profile at the surface's final set, so the stress is zero at set and
+   * equivalent pore pressure profile at the element's final set, so the stress is zero at set and
    * grows with the drying after it (common practice in early-age stress analysis). 'placement'
    * counts it from the saturated placement (the behaviour before this option).
    */
@@ -114,6 +127,10 @@ export interface ElementModel {
   readonly grid: DepthGrid;
   readonly hydraulics: PoreHydraulics;
   readonly liquidDensityKgPerM3: number;
+  /** The cell whose equivalent age decides when the element sets (`config.settingDepthM`). */
+  readonly settingCell: number;
+  /** True once the element has reached final set (the age at `settingCell` is past it). */
+  hasSet(state: ElementState): boolean;
   /**
    * A saturated element at placement (time 0) at a uniform temperature (K, default 293.15), with
    * the options' parameters unless `overrides` gives this member its own (ensembles).
@@ -294,9 +311,13 @@ export function createElementModel(config: ElementModelConfig): ElementModel {
     stressReferenceTimeS: material.mix === undefined ? 0 : Number.NaN,
   });
 
+  const settingCell = settingCellIndex(
+    grid.centresM,
+    config.settingDepthM ?? defaultSettingDepthM(config.thicknessM),
+  );
   /** True once the element has reached final set (see stressReference.ts). */
   const elementHasSet = (state: ElementState): boolean =>
-    surfaceHasSet(material, state.equivalentAgeS[0] ?? 0);
+    hasReachedFinalSet(material, state.equivalentAgeS[settingCell] ?? 0);
 
   // Context of the interval being advanced: the surface functions below are built once per
   // model (a closure made per call costs more than the work of a step under tsx) and read it.
@@ -493,6 +514,8 @@ export function createElementModel(config: ElementModelConfig): ElementModel {
     grid,
     hydraulics,
     liquidDensityKgPerM3: liquidDensity,
+    settingCell,
+    hasSet: elementHasSet,
     initialState,
     advanceTo,
     applyState,

@@ -3,7 +3,7 @@
  * ensemble is copied with {@link cloneElementState} in microseconds and a snapshot for restart
  * is a small JSON object ({@link serialiseElementState}, versioned). The state also carries the
  * stress-free reference of the drying stress (stressReference.ts): the equivalent pore pressure
- * profile recorded at the surface's final set.
+ * profile recorded at the element's final set (stressReference.ts).
  */
 import type { TransportState } from './stepController.ts';
 
@@ -56,8 +56,8 @@ export interface ElementState {
   /** This state's uncertain parameters. */
   parameters: ElementParameters;
   /**
-   * Equivalent pore pressure of each cell at the stress-free reference, the surface's final set
-   * (stressReference.ts), Pa; null until the surface has set. A material without a mix records
+   * Equivalent pore pressure of each cell at the stress-free reference, the element's final set
+   * (stressReference.ts), Pa; null until the element has set. A material without a mix records
    * the placement profile (zeros) at time 0.
    */
   stressReferencePa: Float64Array | null;
