@@ -1,0 +1,228 @@
+/**
+ * The run page in a real headless chromium, against the real server (embedded broker, archive,
+ * live engine) fed by the demo scenario's devices over MQTT: figures from the state with their
+ * units, live updates without a reload, logging and ending a measure from the form, the runs
+ * list, and a phone-sized screen. Expected texts are written out here from the state's numbers
+ * (toFixed and the unit), not produced by the dashboard's own formatters.
+ */
+import type { Page } from 'playwright-core';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import type { RunState } from '../../../server/src/live/types.ts';
+import { startDashboardRig } from '../_dashboardRig.ts';
+import type { DashboardRig } from '../_dashboardRig.ts';
+
+/** The scenario's offset (+02:00), min: the page shows times on the site's clock. */
+const SITE_OFFSET_MIN = 120;
+const NBSP = '\u00a0';
+
+/** A number as the page should show it: fixed decimals, no minus on a rounded zero. */
+function fixed(value: number | null, decimals: number): string {
+  if (value === null) throw new Error('the state has no value for a figure the test reads');
+  const text = value.toFixed(decimals);
+  return /^-0\.0+$/.test(text) ? text.slice(1) : text;
+}
+
+/** "HH:MM" on the site's clock. */
+function siteClock(timeMs: number): string {
+  return new Date(timeMs + SITE_OFFSET_MIN * 60_000).toISOString().slice(11, 16);
+}
+
+/** The figures the page must show for a state, by their `data-figure` names. */
+function expectedFigures(state: RunState): Record<string, string> {
+  return {
+    utilization: fixed(state.utilization, 2),
+    margin: `${fixed(state.marginMPa, 2)}${NBSP}MPa`,
+    'stress-strength': `${fixed(state.surfaceStressMPa, 2)}${NBSP}MPa of ${fixed(state.fctmMPa, 2)}${NBSP}MPa`,
+    evaporation: `${fixed(state.evaporationKgM2h, 2)}${NBSP}kg/m²/h`,
+    'bleed-film': `${fixed(state.bleedFilmKgM2, 2)}${NBSP}kg/m²`,
+    compressive: `${fixed(state.inPlaceCompressiveStrengthMPa, 1)}${NBSP}MPa`,
+  };
+}
+
+/** The figures the page shows now. */
+async function shownFigures(page: Page): Promise<Record<string, string>> {
+  return page.$$eval('[data-figure]', (nodes) =>
+    Object.fromEntries(
+      nodes.map((node) => [node.getAttribute('data-figure') ?? '', node.textContent ?? '']),
+    ),
+  );
+}
+
+let rig: DashboardRig;
+let pages: Page[] = [];
+
+async function openRunPage(width = 1280, height = 900): Promise<Page> {
+  const page = await rig.browser.newPage();
+  pages.push(page);
+  await page.setViewportSize({ width, height });
+  await page.goto(rig.runUrl);
+  await page.waitForSelector('[data-figure="utilization"]');
+  return page;
+}
+
+beforeAll(async () => {
+  rig = await startDashboardRig();
+  // Past final set (about 15:00 in this scenario), so stress, strength and margin are defined.
+  await rig.playUntil(rig.siteTimeMs('15:40'));
+}, 240_000);
+
+afterAll(async () => {
+  for (const page of pages) await page.close();
+  pages = [];
+  await rig?.close();
+});
+
+describe('the run page', () => {
+  it('shows the run: name, site, placed at with its offset, phase and the time of the figures', async () => {
+    const page = await openRunPage();
+    const state = await rig.apiJson<RunState>(`/runs/${rig.runId}/state`);
+    const run = await rig.apiJson<{ name: string; site: string }>(`/runs/${rig.runId}`);
+    expect(await page.textContent('h1')).toBe(run.name);
+    const header = (await page.textContent('#run-header')) ?? '';
+    expect(header).toContain(run.site);
+    expect(await page.textContent('#placed-at')).toBe('2026-07-16 11:15 (UTC+02:00)');
+    expect(state.phase).toBe('hardening');
+    expect(await page.textContent('#phase')).toBe('hardening (after final set)');
+    expect(await page.textContent('#event-time')).toContain(
+      `2026-07-16 ${siteClock(state.eventTimeMs ?? 0)} (UTC+02:00`,
+    );
+    expect(await page.textContent('#caution')).toContain(state.caution);
+  });
+
+  it('shows every figure of the state with its unit, and the run thresholds on the utilization gauge', async () => {
+    const page = await openRunPage();
+    const state = await rig.apiJson<RunState>(`/runs/${rig.runId}/state`);
+    expect(await shownFigures(page)).toEqual(expectedFigures(state));
+    const marks = await page.$$eval('#gauge-utilization .meter-mark-label', (nodes) =>
+      nodes.map((node) => node.textContent),
+    );
+    expect(marks).toEqual(['0.57', '0.69', '1.00']);
+    const crossings = (await page.textContent('#crossings')) ?? '';
+    expect(crossings).toMatch(/Utilization 0\.57: /);
+    expect(crossings).toMatch(/Utilization 1\.00: /);
+  });
+
+  it('draws the history, outlook and saturation plots and the probe table', async () => {
+    const page = await openRunPage();
+    for (const chart of ['#history-chart', '#outlook-chart', '#saturation-chart'])
+      expect(await page.locator(`${chart} canvas`).count(), chart).toBe(1);
+    const state = await rig.apiJson<RunState>(`/runs/${rig.runId}/state`);
+    const rows = await page.locator('#probe-table tbody tr').count();
+    expect(rows).toBe(state.profiles?.probes.length);
+  });
+
+  it('follows a state push without a reload', async () => {
+    const page = await openRunPage();
+    await page.evaluate(() => Object.assign(window, { loadedOnce: true }));
+    const before = await rig.apiJson<RunState>(`/runs/${rig.runId}/state`);
+    await rig.playUntil(rig.siteTimeMs('16:10'));
+    await expect
+      .poll(
+        async () => {
+          const state = await rig.apiJson<RunState>(`/runs/${rig.runId}/state`);
+          return {
+            figures: await shownFigures(page),
+            eventTime: (await page.textContent('#event-time'))?.slice(11, 16),
+            expectedFigures: expectedFigures(state),
+            expectedTime: siteClock(state.eventTimeMs ?? 0),
+          };
+        },
+        { timeout: 20_000, interval: 250 },
+      )
+      .toSatisfy(
+        (shown: {
+          figures: unknown;
+          eventTime: string | undefined;
+          expectedFigures: unknown;
+          expectedTime: string;
+        }) =>
+          JSON.stringify(shown.figures) === JSON.stringify(shown.expectedFigures) &&
+          shown.eventTime === shown.expectedTime,
+      );
+    const after = await rig.apiJson<RunState>(`/runs/${rig.runId}/state`);
+    expect(after.eventTimeMs).toBeGreaterThan(before.eventTimeMs ?? Infinity);
+    expect(await page.evaluate(() => (window as { loadedOnce?: boolean }).loadedOnce)).toBe(true);
+  });
+
+  it('logs a measure from the form into the measure log, then ends it', async () => {
+    const page = await openRunPage();
+    await page.selectOption('#measure-kind', 'fogging');
+    await page.fill('#measure-by', 'Site engineer (browser test)');
+    await page.click('#measure-form button[type="submit"]');
+    type Measures = {
+      measures: { id: string; kind: string; loggedBy: string; endAt: string | null }[];
+    };
+    await expect
+      .poll(async () => (await rig.apiJson<Measures>(`/runs/${rig.runId}/measures`)).measures, {
+        timeout: 10_000,
+      })
+      .toEqual([
+        expect.objectContaining({
+          kind: 'fogging',
+          loggedBy: 'Site engineer (browser test)',
+          endAt: null,
+        }),
+      ]);
+    const row = page.locator('#measure-table tbody tr');
+    await expect.poll(() => row.count()).toBe(1);
+    expect(await row.first().textContent()).toContain('still applied');
+    await row.first().locator('button', { hasText: 'End now' }).click();
+    await expect
+      .poll(
+        async () => (await rig.apiJson<Measures>(`/runs/${rig.runId}/measures`)).measures[0]?.endAt,
+      )
+      .not.toBeNull();
+    await expect
+      .poll(async () => row.first().textContent())
+      .toContain('Site engineer (browser test)');
+    expect(await row.first().textContent()).not.toContain('still applied');
+  });
+
+  it('fits a phone: no sideways scrolling, the level and figures on top, the caution always in sight', async () => {
+    const page = await openRunPage(390, 844);
+    const widths = await page.evaluate(() => ({
+      scroll: document.documentElement.scrollWidth,
+      client: document.documentElement.clientWidth,
+    }));
+    expect(widths.scroll).toBeLessThanOrEqual(widths.client);
+    const banner = await page.locator('#notice-banner').boundingBox();
+    expect(banner?.y).toBeLessThan(844);
+    for (const scrollY of [0, 2000, 100_000]) {
+      await page.evaluate((y) => window.scrollTo(0, y), scrollY);
+      const caution = await page.locator('#caution').boundingBox();
+      expect(caution).not.toBeNull();
+      expect((caution?.y ?? -1) + (caution?.height ?? 0)).toBeLessThanOrEqual(844 + 0.5);
+      expect(caution?.y).toBeGreaterThanOrEqual(0);
+    }
+    for (const chart of ['#history-chart', '#outlook-chart']) {
+      const box = await page.locator(`${chart} canvas`).boundingBox();
+      expect(box?.width, chart).toBeLessThanOrEqual(390);
+    }
+  });
+});
+
+describe('the runs list', () => {
+  it('lists the run with its site, placement and status, and links to its page', async () => {
+    const page = await rig.browser.newPage();
+    pages.push(page);
+    await page.goto(`${rig.baseUrl}/`);
+    const run = await rig.apiJson<{ name: string }>(`/runs/${rig.runId}`);
+    const item = page.locator('#run-list li', { hasText: run.name });
+    await expect.poll(() => item.count()).toBe(1);
+    const text = (await item.textContent()) ?? '';
+    expect(text).toContain('Site ferngate-deck');
+    expect(text).toContain('placed 2026-07-16 11:15 (UTC+02:00)');
+    expect(text).toContain('open');
+    await item.locator('a').click();
+    await page.waitForURL(rig.runUrl);
+    expect(await page.textContent('h1')).toBe(run.name);
+  });
+
+  it('answers an unknown run address with words and a way back', async () => {
+    const page = await rig.browser.newPage();
+    pages.push(page);
+    await page.goto(`${rig.baseUrl}/runs/no-such-run`);
+    await expect.poll(() => page.textContent('h1')).toBe('No such run');
+    expect(await page.locator('a', { hasText: 'All runs' }).count()).toBe(1);
+  });
+});
