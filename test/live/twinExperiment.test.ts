@@ -8,7 +8,11 @@
  * from 0.36 to 0.93 over six seeds, so the ensemble size matters here), for four run ids, i.e.
  * four seeds of the ensemble: the ratio depends on how lucky the prior's draw is, so the
  * method is judged on all four. The calibrated engine is compared with the same ensemble run
- * without assimilation (the prior), through its median, the figure the engine reports.
+ * without assimilation and without the model error's random walk of the exposure multiplier
+ * (the prior: each member keeps its drawn parameters), through its median, the figure the engine
+ * reports. Leaving the walk out of the prior keeps the reference what it was before the walk
+ * existed; with the walk the prior's error grows (e.g. 0.0495 to 0.0634 MPa in run 2) and the
+ * ratio would improve for a reason that has nothing to do with the calibration.
  *
  * The truth reports utilization and margin, not the stress: its surface stress is recovered as
  * fct - margin with fct = margin / (1 - U) from the samples where |1 - U| > 0.3 (well
@@ -27,6 +31,7 @@ import { twinFigures } from '../helpers/twinMetrics.ts';
 
 const folder = loadScenarioFolder('level3-topping');
 const OPTIONS: RunEngineOptions = { outlookEveryAnalyses: 1000 };
+const PRIOR: RunEngineOptions = { ...OPTIONS, assimilation: false, exposureRandomWalkPerSqrtH: 0 };
 
 /** Runs the engine over the twin, feeding 5 minutes at a time; states by event time. */
 function replay(twin: TwinRun, runId: string, options: RunEngineOptions): Map<number, RunState> {
@@ -56,7 +61,7 @@ interface TwinResult {
 
 function twinResult(twin: TwinRun, runId: string): TwinResult {
   const calibrated = replay(twin, runId, OPTIONS);
-  const prior = replay(twin, runId, { ...OPTIONS, assimilation: false });
+  const prior = replay(twin, runId, PRIOR);
   const { count, calibratedRmseMPa, priorRmseMPa, rmseRatio, coverage } = twinFigures(
     twin.truth,
     calibrated,
@@ -100,21 +105,35 @@ describe('live engine twin experiment (level3-topping, no action)', () => {
     expect(mean).toBeGreaterThanOrEqual(0.8);
   });
 
-  // Known gap, measured honestly: the requirement per run is not met by every run. With the
-  // defaults (state and biases only before final set) the four runs give ratios 0.405, 0.515,
-  // 0.455, 0.353 and coverages 0.97, 0.86, 0.71, 0.77; over six more seeds ratios 0.35 to 0.56
-  // and coverages 0.74 to 0.97. The calibrated error sits near 0.025-0.035 MPa whatever the
-  // seed, the prior's error varies with its draw (0.049 to 0.081 MPa). Tried without a
-  // consistent gain: observation error 0.7 and 1.5 %RH, RTPS 0.6 and 0.9, multiplicative
-  // inflation 1.02, a 15-min cadence, depth localisation (15 mm), parameters-only updates. The
-  // remaining error is early in the hardening phase, when the surface suction is still too small
-  // for the 5 mm probes to see (RH above 99.5 %); the truth's stress is itself derived (see
-  // above) with an error of about 0.01-0.02 MPa where fct is interpolated.
-  it.fails('every run meets both targets (ratio <= 0.5, coverage >= 0.8)', () => {
-    for (const result of results) {
-      expect(result.rmseRatio).toBeLessThanOrEqual(0.5);
-      expect(result.coverage).toBeGreaterThanOrEqual(0.8);
-    }
+  // With the model error of the surface flux (the exposure multiplier's random walk, 0.1 per
+  // sqrt(h), engineOptions.ts) every run's band holds the truth often enough: coverages 0.97,
+  // 0.92, 0.80, 0.80 (without the walk 0.97, 0.86, 0.71, 0.77). Over seeds 5-22 (offline, same
+  // replay): 17 of 18 at 0.80 or more, the exception 0.74 (run 13).
+  it('the 90 % band covers the truth at least 80 % of the time in every run', () => {
+    for (const result of results) expect(result.coverage).toBeGreaterThanOrEqual(0.8);
+  });
+
+  // Known gap, measured honestly: the ratio is not at most 0.5 in every run. Runs 1-4 give
+  // 0.427, 0.479, 0.522, 0.377 (calibrated RMSE 0.027, 0.024, 0.035, 0.029 MPa against the
+  // prior's 0.062, 0.050, 0.067, 0.077); over 22 seeds 17 meet it, the others give 0.50 to 0.68.
+  // Why: (1) the model run with the truth's own hidden parameters (no assimilation) already
+  // misses the truth's stress by 0.023 MPa RMSE, so a calibrated run cannot do much better. Most
+  // of it is the surface temperature, which the model reads at the 5 mm probe while the truth's
+  // scripted thermal field has the 5 mm depth lag the surface by a further 35 min
+  // (simulators/src/thermalField.ts: lag tau_s + d^2 / alpha behind a surface that lags the air
+  // by tau_s): 5 mm reads up to 1.7 K below the surface in the morning and 2.6 K above it after
+  // the evening shower; fed the truth's surface temperature instead, the same run misses by
+  // 0.009 MPa (offline check, not kept as a test: the simulators are not changed here). The
+  // filter makes up for it with high exposure and permeability multipliers, which then dry the
+  // surface too fast after the shower (most misses of runs 3 and 13 are from 18:45 on).
+  // (2) The prior's median misses by 0.050 to 0.080 MPa depending on its draw; the draw's
+  // spread is consistent with that error (band sd 0.051-0.076 MPa against RMSE 0.050-0.080),
+  // so a lucky draw leaves a target of about 0.025 MPa, the level of (1). The model run at the
+  // prior's central parameters misses by 0.032 MPa. Tried without a consistent gain: observation
+  // error 0.7 and 1.5 %RH, RTPS 0.6 and 0.9, multiplicative inflation 1.02, a 15-min cadence,
+  // depth localisation (15 mm), parameters-only updates, walks of 0.05, 0.15, 0.2 and 0.3.
+  it.fails('calibrated RMSE is at most half that of the prior in every run', () => {
+    for (const result of results) expect(result.rmseRatio).toBeLessThanOrEqual(0.5);
   });
 
   it('recovers the probe biases within 0.5 %RH in every run (stated tolerance, our assumption)', () => {

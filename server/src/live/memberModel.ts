@@ -99,17 +99,32 @@ export function initialMemberFactory(
 
 /**
  * The forecast step: copies the member's element state and advances the copy to `toS` (s since
- * placement) with `inputs` held over the interval. No model noise (nothing drawn).
+ * placement) with `inputs` held over the interval. Model noise: with `exposureWalkPerSqrtH` s > 0
+ * the member's exposure multiplier m first takes one step of a random walk of its logarithm,
+ * `ln m += s sqrt((toS - fromS) / 3600) n`, n one standard normal draw of the ensemble's
+ * generator per member (members in index order, so a replay draws the same numbers); with s = 0
+ * nothing is drawn.
  */
 export function forecastModel(
   model: ElementModel,
   inputs: () => BoundaryInputs,
+  exposureWalkPerSqrtH = 0,
 ): ForecastModel<ElementState> {
   return {
-    advance(member, _fromS, toS) {
+    advance(member, fromS, toS, random) {
       const carried = cloneElementState(member.carried);
+      const parameters = member.parameters.slice();
+      if (exposureWalkPerSqrtH > 0 && toS > fromS) {
+        const step = exposureWalkPerSqrtH * Math.sqrt((toS - fromS) / 3600) * random.normal();
+        const exposure =
+          (parameters[PARAMETER_INDEX.exposureMultiplier] as number) * Math.exp(step);
+        if (Number.isFinite(exposure) && exposure > 0) {
+          parameters[PARAMETER_INDEX.exposureMultiplier] = exposure;
+          carried.parameters.exposureMultiplier = exposure;
+        }
+      }
       model.advanceTo(carried, toS, inputs());
-      return { state: stateVector(carried), parameters: member.parameters.slice(), carried };
+      return { state: stateVector(carried), parameters, carried };
     },
   };
 }

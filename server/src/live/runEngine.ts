@@ -4,8 +4,9 @@
  * `assimilationIntervalS`); a cycle runs only when every stream it needs has reached its end or
  * has fallen silent (watermark). Each cycle: the weather of the window drives the surface flux
  * (held when silent, flagged), probe temperatures give the temperature field, the ensemble is
- * advanced and the probe humidities are assimilated (ETKF of server/src/calibration). Outlooks
- * follow at their own cadence. Seeded from the run id: a replay is identical, and a snapshot
+ * advanced (each member's exposure multiplier taking one step of its random walk, the model error
+ * of the surface flux) and the probe humidities are assimilated (ETKF of server/src/calibration).
+ * Outlooks follow at their own cadence. Seeded from the run id: a replay is identical, and a snapshot
  * resumed with the readings after it ends in the same state.
  */
 import {
@@ -201,7 +202,7 @@ export function createRunEngine(
       try {
         ensemble = forecastEnsemble(
           ensemble,
-          forecastModel(model, () => inputs),
+          forecastModel(model, () => inputs, opts.exposureRandomWalkPerSqrtH),
           (toMs - placedMs) / 1000,
         );
       } catch (error) {

@@ -108,6 +108,14 @@ export interface RunEngineOptions {
   plasticPhaseUpdates?: 'biases' | 'state-and-biases' | 'all';
   /** Target compressive strength for timeToTargetStrengthH, MPa [70 % of fck, common practice]. */
   targetStrengthMPa?: number;
+  /**
+   * Model error of the surface flux: each member's exposure multiplier follows a random walk of
+   * its logarithm in every cycle, `ln m += s sqrt(dt / 1 h) n` with n standard normal from the
+   * ensemble's seeded generator and s this value, per square-root hour [0.1, our assumption,
+   * origin in engineOptions.ts; 0: the multiplier is a constant and nothing is drawn]. Outlooks
+   * hold each member's multiplier constant.
+   */
+  exposureRandomWalkPerSqrtH?: number;
 }
 
 /** Quantiles of one figure over the members at one time. */
