@@ -15,7 +15,7 @@ export function logChannel(logger: Pick<Logger, 'info' | 'warn'>): NoticeChannel
       const fields = {
         noticeId: notice.id,
         runId: notice.runId,
-        level: notice.level,
+        noticeLevel: notice.level,
         kind: notice.kind,
         raisedAtMs: notice.raisedAtMs,
       };

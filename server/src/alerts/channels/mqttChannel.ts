@@ -14,28 +14,18 @@ export function noticeTopic(site: string): string {
 }
 
 /**
- * A channel publishing to the broker at `url`. The client reconnects every second; a notice
- * sent while it is not connected fails at once (and the outbox tries again) rather than waiting
- * in MQTT.js's memory, where a restart would lose it.
+ * A channel publishing through `client` (which it ends on close). A notice sent while the client
+ * is not connected fails at once (and the outbox tries again) rather than waiting in MQTT.js's
+ * memory, where a restart would lose it.
  *
- * @param options - MQTT.js options (client id, credentials, TLS)
  * @param timeoutMs - longest wait for the broker's PUBACK, ms [10,000, our assumption]
  */
-export function mqttChannel(
-  url: string,
-  options: IClientOptions,
-  timeoutMs = 10_000,
-): NoticeChannel {
-  const client: MqttClient = mqtt.connect(url, { reconnectPeriod: 1000, ...options });
-  client.on('error', () => {
-    // Connection errors show as failed deliveries; the client keeps reconnecting.
-  });
+export function mqttChannel(client: MqttClient, timeoutMs = 10_000): NoticeChannel {
   return {
     name: 'mqtt',
     recipients: (run) => [noticeTopic(run.site)],
     send(notice: Notice, topic: string) {
-      if (!client.connected)
-        return Promise.reject(new Error(`not connected to the broker at ${url}`));
+      if (!client.connected) return Promise.reject(new Error('not connected to the broker'));
       return new Promise<void>((resolve, reject) => {
         const timer = setTimeout(
           () => reject(new Error(`no acknowledgement from the broker within ${timeoutMs} ms`)),
@@ -50,4 +40,18 @@ export function mqttChannel(
     },
     close: () => new Promise<void>((resolve) => client.end(true, {}, () => resolve())),
   };
+}
+
+/**
+ * An MQTT.js client of the broker at `url` for mqttChannel(), reconnecting every second;
+ * connection errors show as failed deliveries.
+ *
+ * @param options - MQTT.js options (client id, credentials, TLS)
+ */
+export function connectNoticeClient(url: string, options: IClientOptions): MqttClient {
+  const client = mqtt.connect(url, { reconnectPeriod: 1000, ...options });
+  client.on('error', () => {
+    // Shown as failed deliveries; the client keeps reconnecting.
+  });
+  return client;
 }
