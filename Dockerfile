@@ -13,6 +13,9 @@ COPY package.json package-lock.json ./
 RUN npm ci --omit=dev
 COPY server ./server
 COPY simulators ./simulators
+# The dashboard, built here (vite is a production dependency); the server serves web/dist at /.
+COPY web ./web
+RUN npm run build:web
 
 RUN mkdir -p /var/lib/meniscus && chown node:node /var/lib/meniscus
 ENV MENISCUS_DATA_DIR=/var/lib/meniscus \

@@ -83,6 +83,10 @@ it(
     expect(health.status).toBe(200);
     const body = (await health.json()) as { archive: { ok: boolean } };
     expect(body.archive.ok).toBe(true);
+    // the dashboard built by the image's own step, served at /
+    const page = await fetch(`http://127.0.0.1:${httpPort}/`);
+    expect(page.status).toBe(200);
+    expect(await page.text()).toContain('<main id="app"');
 
     // the demo profile's command, three minutes of event time at 120x
     const simulators = spawn(
