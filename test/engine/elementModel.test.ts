@@ -138,6 +138,39 @@ describe('element model behaviour', () => {
     },
   );
 
+  // In proportion: while the surface stays saturated (suction below the air entry), the water
+  // content is linear in p (the specific storage) and the conductivity is k_sat / eta, so the
+  // transport is linear diffusion; counted from placement, pi = p there and the stress is linear
+  // in pi (physics.md 5). The stress is then proportional to the surface flux, which the
+  // compound multiplies by (1 - efficiency) (physics.md 4). What is left of nonlinearity is the
+  // falling-rate term of the evaporation at h = exp(p / A) > 0.9998 (|p| < 30 kPa): 0.2 % (our
+  // tolerance) covers it. Past the air entry the response is not proportional: the pores drain
+  // and the capillary pressure rises steeply, so a weak compound can leave the peak almost
+  // unchanged and a strong one remove it (the monotone checks above).
+  it.each([0.25, 0.5, 0.75])(
+    'a curing compound of efficiency %s lowers the peak surface stress in proportion to (1 - efficiency) while the surface stays saturated',
+    (efficiency) => {
+      const model = modelOf(
+        'cement-mortar-fine',
+        0.05,
+        'one-face',
+        {},
+        {
+          stressReference: 'placement',
+        },
+      );
+      const mildRun = (measures: ReturnType<typeof measure>[]) =>
+        run(model, steadyWeather(15, 0.9, 0.5), 6, measures);
+      const bare = mildRun([]);
+      // Saturated (exactly 1: the pressure never passed the air entry) throughout the run.
+      for (const figures of bare.series) expect(figures.surfaceSaturation).toBe(1);
+      expect(bare.maxSurfaceStressPa).toBeGreaterThan(0);
+      const compound = mildRun([measure('curing-compound', 0, 48, { efficiency })]);
+      const ratio = compound.maxSurfaceStressPa / bare.maxSurfaceStressPa;
+      expect(Math.abs(ratio / (1 - efficiency) - 1)).toBeLessThan(2e-3);
+    },
+  );
+
   // The exception: in the concretes the pores refine as they hydrate (physics.md section 2), so
   // a weak compound that only slows the drying lets the steepest drying profile form hours later,
   // in finer pores whose capillary pressures are higher for the same loss of water: the peak
