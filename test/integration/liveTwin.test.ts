@@ -92,8 +92,13 @@ beforeAll(async () => {
   for (const state of socket.received('state')) {
     if (state?.eventTimeMs != null) pushed.set(state.eventTimeMs, state);
   }
-  // The prior: the same engine without assimilation, fed what the archive committed in 5 min batches.
-  const prior = createRunEngine(runId, folder.runConfig, { ...OPTIONS, assimilation: false });
+  // The prior: the same engine without assimilation and without the exposure multiplier's random
+  // walk (as in the offline twin test), fed what the archive committed in 5 min batches.
+  const prior = createRunEngine(runId, folder.runConfig, {
+    ...OPTIONS,
+    assimilation: false,
+    exposureRandomWalkPerSqrtH: 0,
+  });
   const priorStates = new Map<number, RunState>();
   const readings = server.archive.readings(runId, { limit: 1_000_000 });
   for (let i = 0; i < readings.length;) {
