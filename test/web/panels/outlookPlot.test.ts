@@ -24,10 +24,27 @@ const outlook: NonNullable<RunState['outlook']> = {
 };
 
 describe('crossingSentences()', () => {
-  it("says when each threshold is expected to be crossed on the site's clock, and how likely", () => {
+  it("says when a likely crossing is expected on the site's clock, and that an unreached one is not", () => {
     expect(crossingSentences(outlook, eventTimeMs, 0.3, 120)).toEqual([
       `Utilization 0.57: expected at 14:10, in${NBSP}1${NBSP}h 10${NBSP}min (probability within 6${NBSP}h: 80${NBSP}%).`,
-      `Utilization 1.00: not expected to be crossed (probability within 6${NBSP}h: 5${NBSP}%).`,
+      `Utilization 1.00: not reached within 6${NBSP}h (probability 5${NBSP}%).`,
+    ]);
+  });
+
+  it('calls a crossing few members make unlikely, giving their mean time as such', () => {
+    const unlikely = {
+      ...outlook,
+      crossings: [
+        {
+          threshold: 0.69,
+          probability: 0.09,
+          expectedTimeMs: eventTimeMs + 70 * 60_000,
+          medianTimeMs: null,
+        },
+      ],
+    };
+    expect(crossingSentences(unlikely, eventTimeMs, 0.3, 120)).toEqual([
+      `Utilization 0.69: unlikely within 6${NBSP}h (probability 9${NBSP}%); where it is reached, at about 14:10, in${NBSP}1${NBSP}h 10${NBSP}min.`,
     ]);
   });
 

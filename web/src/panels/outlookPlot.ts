@@ -28,8 +28,10 @@ export function outlookSeries(outlook: Outlook, thresholds: readonly number[]): 
 }
 
 /**
- * One sentence per threshold: already reached (utilization now at or above it), or when the
- * outlook expects it to be crossed and how likely within the horizon.
+ * One sentence per threshold: already reached (utilization now at or above it); expected at a
+ * time (when at least half the ensemble crosses it within the horizon); or how likely it is,
+ * with the mean time of the members that do cross (the engine's expectedTimeMs is that mean,
+ * so it is no forecast of the crossing when few members cross).
  */
 export function crossingSentences(
   outlook: Outlook,
@@ -41,10 +43,14 @@ export function crossingSentences(
     const name = `Utilization ${formatFigure(crossing.threshold, 2, '')}`;
     if (utilizationNow !== null && utilizationNow >= crossing.threshold)
       return `${name}: already reached (utilization now ${formatFigure(utilizationNow, 2, '')}).`;
-    const probability = `probability within ${formatDurationH(outlook.horizonH)}: ${formatPercent(crossing.probability)}`;
+    const within = `within ${formatDurationH(outlook.horizonH)}`;
+    const probability = formatPercent(crossing.probability);
     if (crossing.expectedTimeMs === null)
-      return `${name}: not expected to be crossed (${probability}).`;
-    return `${name}: expected at ${formatSiteTime(crossing.expectedTimeMs, offsetMin)}, ${formatFromNow(crossing.expectedTimeMs, eventTimeMs)} (${probability}).`;
+      return `${name}: not reached ${within} (probability ${probability}).`;
+    const at = `${formatSiteTime(crossing.expectedTimeMs, offsetMin)}, ${formatFromNow(crossing.expectedTimeMs, eventTimeMs)}`;
+    if (crossing.probability >= 0.5)
+      return `${name}: expected at ${at} (probability ${within}: ${probability}).`;
+    return `${name}: unlikely ${within} (probability ${probability}); where it is reached, at about ${at}.`;
   });
 }
 

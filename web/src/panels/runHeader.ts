@@ -61,7 +61,7 @@ export function renderRunHeader(
       fact('Site', run.site),
       fact(
         'Element',
-        `${element.kind}, ${formatFigure(element.thicknessMm, 0, 'mm')}, drying ${element.drying}`,
+        `${element.kind}, ${formatFigure(element.thicknessMm, 0, 'mm')}, drying from ${element.drying === 'two-face' ? 'both faces' : 'one face'}`,
       ),
       fact('Placed at', `${formatSiteDateTime(placedMs, offsetMin)} (${offset})`, 'placed-at'),
       fact(
