@@ -43,6 +43,7 @@ export class NoticeOutbox {
   readonly #options: Required<NoticeOutboxOptions>;
   #timer: NodeJS.Timeout | null = null;
   #running: Promise<number> | null = null;
+  #again: Promise<number> | null = null;
   /** Counters for /api/health. */
   readonly counters = { sent: 0, failedAttempts: 0, givenUp: 0 };
 
@@ -70,10 +71,19 @@ export class NoticeOutbox {
 
   /**
    * Sends every delivery due now, each on its own; resolves with how many were attempted once
-   * all have settled. Calls while one is running join it.
+   * all have settled. A call while a pass is running gets one more pass after it (deliveries
+   * added meanwhile are not missed); calls waiting for that pass share it.
    */
   flush(): Promise<number> {
-    this.#running ??= this.#flushDue().finally(() => {
+    if (this.#running !== null) {
+      const next = (): Promise<number> => {
+        this.#again = null;
+        return this.flush();
+      };
+      this.#again ??= this.#running.then(next, next);
+      return this.#again;
+    }
+    this.#running = this.#flushDue().finally(() => {
       this.#running = null;
     });
     return this.#running;
@@ -99,6 +109,7 @@ export class NoticeOutbox {
   async close(): Promise<void> {
     if (this.#timer !== null) clearInterval(this.#timer);
     this.#timer = null;
+    await this.#again;
     await this.#running;
     await Promise.allSettled([...this.#channels.values()].map((channel) => channel.close?.()));
   }

@@ -10,6 +10,8 @@ import type { Archive } from '../store/archive.ts';
 import type { RunRecord, StoredReading } from '../store/types.ts';
 import { stringify } from 'csv-stringify/sync';
 import { addFigureRoutes } from './figureRoutes.ts';
+import { addNoticeRoutes } from './noticeRoutes.ts';
+import type { NoticeAcknowledger } from './noticeRoutes.ts';
 import { HttpError } from './httpError.ts';
 import { parseReadingsQuery } from './readingsQuery.ts';
 import { addRunRoutes } from './runRoutes.ts';
@@ -25,6 +27,8 @@ export interface ApiContext {
   lifecycle?: RunLifecycle;
   /** The live host for GET /api/runs/:id/state; without it that route answers 503. */
   live?: LiveStates;
+  /** Crew notices: acknowledgements are announced through it (archive only without it). */
+  notices?: NoticeAcknowledger;
 }
 
 /** Builds the /api router. Bodies up to 256 KiB of JSON (our assumption: a run configuration is a few KiB). */
@@ -97,6 +101,7 @@ export function apiRouter(context: ApiContext): Router {
 
   addRunRoutes(router, lifecycle, context.live ?? null);
   addFigureRoutes(router, archive);
+  addNoticeRoutes(router, archive, context.notices ?? null, clock);
 
   router.use((_request: Request) => {
     throw new HttpError(404, 'no such API route');

@@ -1,11 +1,13 @@
 /**
  * Live push over socket.io (v4, on the HTTP server, path `/socket.io`). A client joins a run's
  * room with the `join` event (`socket.emit('join', runId, ack)`) or the handshake query
- * `?run=<id>`; it then gets `state` (a RunState) on every update of that run's engine. After a
+ * `?run=<id>`; it then gets `state` (a RunState) on every update of that run's engine, and
+ * `notice` (a crew notice) when one is raised or acknowledged. After a
  * reconnect the client joins again and fetches GET /api/runs/:id/state: connection state
  * recovery replays only broadcasts, not the state (dependencies.md). Documented in README.md.
  */
 import type { Server as SocketServer, Socket } from 'socket.io';
+import type { Notice } from '../alerts/types.ts';
 import type { RunState } from '../live/types.ts';
 import type { Archive } from '../store/archive.ts';
 import type { LiveStates } from './runRoutes.ts';
@@ -57,4 +59,12 @@ export function attachLiveSocket(io: SocketServer, archive: Archive, live: LiveS
 /** Pushes a run's new state to its room. */
 export function pushState(io: SocketServer, runId: string, state: RunState): void {
   io.to(runRoom(runId)).emit('state', state);
+}
+
+/**
+ * Pushes a crew notice (new, or updated by an acknowledgement: same id) to its run's room as
+ * the `notice` event.
+ */
+export function pushNotice(io: SocketServer, notice: Notice): void {
+  io.to(runRoom(notice.runId)).emit('notice', notice);
 }
