@@ -3,13 +3,19 @@ import { describe, expect, it } from 'vitest';
 import type { Notice, NoticeLevel } from '../../web/src/contract.ts';
 import { currentNotice, upsertNotice } from '../../web/src/noticeFeed.ts';
 
-function notice(seq: number, level: NoticeLevel, kind = 'margin-outlook'): Notice {
+function notice(
+  seq: number,
+  level: NoticeLevel,
+  kind = 'margin-outlook',
+  conditionKey = 'margin',
+): Notice {
   return {
     id: `n-r-${seq}`,
     runId: 'r',
     seq,
     level,
     kind,
+    conditionKey,
     raisedAtMs: seq * 60_000,
     title: `${level}: notice ${seq}`,
     text: '',
@@ -47,26 +53,45 @@ describe('currentNotice()', () => {
     ['no notices: none', [], null],
     ['a single notice: that one', [notice(1, 'PREPARE')], 1],
     [
-      'a NOTE after an ACT NOW does not hide the ACT NOW',
-      [notice(3, 'NOTE', 'measure-logged'), notice(2, 'ACT NOW'), notice(1, 'PREPARE')],
+      'a NOTE on another concern after an ACT NOW does not hide the ACT NOW',
+      [notice(3, 'NOTE', 'measure-logged', 'measure'), notice(2, 'ACT NOW'), notice(1, 'PREPARE')],
       2,
     ],
     [
-      'a more urgent newer notice replaces an older one',
-      [notice(3, 'CRACKING LIKELY'), notice(2, 'ACT NOW')],
+      'a newer notice of the same concern replaces the older one, even when less urgent',
+      [notice(3, 'PREPARE'), notice(2, 'ACT NOW')],
       3,
     ],
     [
-      'an eased notice clears the earlier levels',
-      [notice(3, 'NOTE', 'eased'), notice(2, 'ACT NOW')],
+      "a concern's easing clears its level",
+      [notice(3, 'NOTE', 'eased', 'margin'), notice(2, 'ACT NOW', 'margin-outlook', 'margin')],
       3,
     ],
     [
-      'levels raised after an eased notice count, the ones before it do not',
-      [notice(4, 'PREPARE'), notice(3, 'NOTE', 'eased'), notice(2, 'CRACKING LIKELY')],
-      4,
+      "one concern's easing leaves another concern's level standing",
+      [
+        notice(4, 'NOTE', 'eased', 'evaporation'),
+        notice(3, 'PREPARE', 'evaporation-rate', 'evaporation'),
+        notice(2, 'ACT NOW', 'margin-outlook', 'margin'),
+      ],
+      2,
+    ],
+    [
+      'the newest wins between equal levels',
+      [notice(5, 'PREPARE', 'evaporation-rate', 'evaporation'), notice(4, 'PREPARE')],
+      5,
     ],
   ])('%s', (_title, notices, expectedSeq) => {
     expect(currentNotice(notices)?.seq ?? null).toBe(expectedSeq);
+  });
+
+  it('uses the kind as the concern when the server gives no conditionKey', () => {
+    const withoutKey = (entry: Notice): Notice => {
+      const copy = { ...entry };
+      delete copy.conditionKey;
+      return copy;
+    };
+    const notices = [notice(2, 'NOTE', 'measure-logged'), notice(1, 'ACT NOW')].map(withoutKey);
+    expect(currentNotice(notices)?.seq).toBe(1);
   });
 });

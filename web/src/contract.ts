@@ -20,6 +20,8 @@ export interface NoticeDelivery {
   attempts: number;
   lastAttemptMs: number | null;
   error: string | null;
+  /** Wall-clock time of the next attempt, ms; null when none is due (a field the server adds). */
+  nextAttemptMs?: number | null;
 }
 
 /** A crew notice (GET /api/runs/:id/notices, socket.io `notice`). */
@@ -29,6 +31,13 @@ export interface Notice {
   seq: number;
   level: NoticeLevel;
   kind: string;
+  /**
+   * The concern it is about (`margin`, `evaporation`, `sensor:<device>/<sensor>`...): the level
+   * is kept per concern (a field the server adds; absent, the kind stands in for it).
+   */
+  conditionKey?: string;
+  /** True for a repeat of an unacknowledged notice (a field the server adds). */
+  repeat?: boolean;
   /** Engine event time it was raised at, ms. */
   raisedAtMs: number;
   title: string;

@@ -15,16 +15,28 @@ export function upsertNotice(notices: readonly Notice[], notice: Notice): Notice
 }
 
 /**
- * The notice that sets the level shown at the top of the page: the most urgent one since the
- * latest "eased" notice (which says the condition cleared), the newest among equals. So a NOTE
- * such as "measure logged" after an ACT NOW does not hide the ACT NOW, while an eased notice
- * does. Null when there is none.
+ * The notice that sets the level shown at the top of the page. The server keeps one level per
+ * concern (`conditionKey`: the margin, the evaporation, a silent sensor...), so the page takes the
+ * newest notice of each concern (an "eased" one included: it says that concern cleared or
+ * dropped) and shows the most urgent of those, the newest among equals. A NOTE such as "measure
+ * logged" thus never hides an ACT NOW on the margin, while the margin's own easing does. Without
+ * a conditionKey the kind stands in for it. Null when there is no notice.
  */
 export function currentNotice(notices: readonly Notice[]): Notice | null {
-  let current: Notice | null = null;
+  const newestPerConcern = new Map<string, Notice>();
   for (const notice of notices) {
-    if (notice.kind === 'eased') return current ?? notice;
-    if (current === null || levelRank(notice.level) > levelRank(current.level)) current = notice;
+    const concern = notice.conditionKey ?? notice.kind;
+    const known = newestPerConcern.get(concern);
+    if (known === undefined || notice.seq > known.seq) newestPerConcern.set(concern, notice);
+  }
+  let current: Notice | null = null;
+  for (const notice of newestPerConcern.values()) {
+    if (
+      current === null ||
+      levelRank(notice.level) > levelRank(current.level) ||
+      (levelRank(notice.level) === levelRank(current.level) && notice.seq > current.seq)
+    )
+      current = notice;
   }
   return current;
 }

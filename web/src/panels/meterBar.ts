@@ -53,7 +53,7 @@ export function meterBar(options: MeterOptions): HTMLElement {
     label.style.top = `${0.15 + row * 1.05}rem`;
     marks.appendChild(label);
   }
-  marks.style.height = `${Math.max(1, rowEnds.length) * 1.05}rem`;
+  marks.style.height = `${rowEnds.length * 1.05}rem`;
   return el(
     'div',
     {

@@ -17,10 +17,14 @@ function deliveryLine(delivery: Notice['deliveries'][number], offsetMin: number)
       ? ''
       : `, last try ${formatSiteTime(delivery.lastAttemptMs, offsetMin)}`;
   const tries = `${delivery.attempts} ${delivery.attempts === 1 ? 'try' : 'tries'}`;
+  const next =
+    delivery.nextAttemptMs === null || delivery.nextAttemptMs === undefined
+      ? ''
+      : `, next try ${formatSiteTime(delivery.nextAttemptMs, offsetMin)}`;
   return el(
     'li',
     { class: `delivery delivery-${delivery.status}` },
-    `${delivery.channel} to ${delivery.recipient}: ${delivery.status} (${tries}${when})`,
+    `${delivery.channel} to ${delivery.recipient}: ${delivery.status} (${tries}${when}${next})`,
     delivery.error === null ? null : ` - ${delivery.error}`,
   );
 }
