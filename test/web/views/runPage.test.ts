@@ -7,6 +7,7 @@
  */
 import type { Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { runRoom } from '../../../server/src/api/liveSocket.ts';
 import type { RunState } from '../../../server/src/live/types.ts';
 import { startDashboardRig } from '../_dashboardRig.ts';
 import type { DashboardRig } from '../_dashboardRig.ts';
@@ -201,6 +202,58 @@ describe('the run page', () => {
   });
 });
 
+describe('crew notices on the run page', () => {
+  it('shows a pushed `notice` event at once: the level in words on top with its title, the text and each delivery', async () => {
+    const page = await openRunPage();
+    // A notice as the contract describes it, pushed through the server's own socket.io room.
+    // CRACKING LIKELY on a concern of its own, so it is the level on top whatever else is raised.
+    const raisedAtMs = rig.siteTimeMs('15:35');
+    const notice = {
+      id: `n-${rig.runId}-900`,
+      runId: rig.runId,
+      seq: 900,
+      level: 'CRACKING LIKELY',
+      kind: 'utilization',
+      conditionKey: 'browser-test',
+      raisedAtMs,
+      title: 'CRACKING LIKELY: protect the surface now',
+      text: 'Utilization has reached 1.02.\nFog or cover bays C4 to C7 now.',
+      figures: {
+        utilization: 1.02,
+        marginMPa: -0.01,
+        evaporationKgM2h: 1.76,
+        expectedClosingMs: null,
+        probabilityCracking: 0.84,
+      },
+      deliveries: [
+        {
+          channel: 'email',
+          recipient: 'crew.lead@example.org',
+          status: 'failed',
+          attempts: 2,
+          lastAttemptMs: raisedAtMs + 60_000,
+          error: 'connection refused',
+        },
+      ],
+      acknowledgedAtMs: null,
+      acknowledgedBy: null,
+    };
+    rig.server.io.to(runRoom(rig.runId)).emit('notice', notice);
+    await expect.poll(() => page.textContent('#notice-level')).toBe('CRACKING LIKELY');
+    const banner = (await page.textContent('#notice-banner')) ?? '';
+    expect(banner).toContain('cracking likely now or very soon');
+    expect(banner).toContain(notice.title);
+    expect(banner).toContain('raised at 15:35');
+    const item = page.locator(`#notice-${notice.id}`);
+    const text = (await item.textContent()) ?? '';
+    expect(text).toContain('Fog or cover bays C4 to C7 now.');
+    expect(text).toContain(`email to crew.lead@example.org: failed (2 tries, last try 15:36)`);
+    expect(text).toContain('connection refused');
+    expect(text).toContain(`probability of cracking 84${NBSP}%`);
+    expect(await item.locator('button', { hasText: 'Acknowledge' }).count()).toBe(1);
+  });
+});
+
 describe('the runs list', () => {
   it('lists the run with its site, placement and status, and links to its page', async () => {
     const page = await rig.browser.newPage();
@@ -210,7 +263,7 @@ describe('the runs list', () => {
     const item = page.locator('#run-list li', { hasText: run.name });
     await expect.poll(() => item.count()).toBe(1);
     const text = (await item.textContent()) ?? '';
-    expect(text).toContain('Site ferngate-deck');
+    expect(text).toContain('Site ferngate-deck - topping 75\u00a0mm - ');
     expect(text).toContain('placed 2026-07-16 11:15 (UTC+02:00)');
     expect(text).toContain('open');
     await item.locator('a').click();
