@@ -13,10 +13,13 @@ import { pino } from 'pino';
 import type { Logger } from 'pino';
 import type { IClientOptions } from 'mqtt';
 import { Server as SocketServer } from 'socket.io';
+import { CrewNotices } from './alerts/crewNotices.ts';
+import { connectNoticeClient, mqttChannel } from './alerts/channels/mqttChannel.ts';
+import { noticeChannelsFromSettings } from './alerts/noticeChannels.ts';
 import { apiRouter } from './api/apiRouter.ts';
 import { dashboardRoutes } from './api/dashboardRoutes.ts';
 import { errorToHttp } from './api/httpError.ts';
-import { attachLiveSocket, pushState } from './api/liveSocket.ts';
+import { attachLiveSocket, pushNotice, pushState } from './api/liveSocket.ts';
 import type { ServerConfig } from './config/serverConfig.ts';
 import { Ingestor } from './ingest/ingestor.ts';
 import { createRunEngine } from './live/index.ts';
@@ -43,6 +46,8 @@ export interface RunningServer {
   broker: BrokerConnection;
   lifecycle: RunLifecycle;
   live: LiveHost;
+  /** Crew notices: rules, alert state, outbox and channels. */
+  notices: CrewNotices;
   io: SocketServer;
   logger: Logger;
   /** Stops taking messages and requests, flushes the forwarder, closes the archive. */
@@ -74,12 +79,22 @@ export async function startServer(
   });
   const lifecycle = new RunLifecycle(archive);
   let io: SocketServer | null = null;
+  const notices = new CrewNotices(archive, {
+    channels: noticeChannelsFromSettings(config.notices, log),
+    alertOptions: { renotifyMin: config.notices?.renotifyMin ?? 30 },
+    onNotice: (notice) => {
+      if (io !== null) pushNotice(io, notice);
+    },
+    onError: (runId, error) => log.error({ err: error, runId }, 'crew notices failed on a state'),
+    outbox: { onFailure: (failure) => log.warn(failure, 'crew notice delivery failed') },
+  });
   const live = new LiveHost(archive, lifecycle, options.createEngine ?? createRunEngine, {
     ...(options.engineOptions === undefined ? {} : { engineOptions: options.engineOptions }),
     snapshotEveryS: config.snapshotEveryS ?? 1800,
     onState: (runId, state) => {
       if (io !== null) pushState(io, runId, state);
     },
+    onAdvance: (runId, state) => notices.onState(runId, state),
     onError: (runId, error) => log.error({ err: error, runId }, 'live engine failed on a run'),
   });
   // Before the broker: every commit from now on reaches the engines.
@@ -92,6 +107,7 @@ export async function startServer(
   let broker: BrokerConnection;
   let mqttPort: number | null = null;
   let forecasts: ForecastSubscriber;
+  let noticeBroker: { url: string; options: IClientOptions };
   if (config.mqtt.mode === 'embedded') {
     const embedded = await startEmbeddedBroker(ingestor, {
       host: config.mqtt.host,
@@ -101,6 +117,10 @@ export async function startServer(
     broker = embedded;
     const host =
       config.mqtt.host === '0.0.0.0' || config.mqtt.host === '::' ? '127.0.0.1' : config.mqtt.host;
+    noticeBroker = {
+      url: `mqtt://${host}:${embedded.port}`,
+      options: { clientId: `meniscus-notices-${process.pid}` },
+    };
     forecasts = startForecastSubscriber(
       `mqtt://${host}:${embedded.port}`,
       { clientId: `meniscus-forecast-${process.pid}` },
@@ -126,10 +146,20 @@ export async function startServer(
       ...(tls.certFile === undefined ? {} : { cert: readFileSync(tls.certFile) }),
       ...(tls.keyFile === undefined ? {} : { key: readFileSync(tls.keyFile) }),
     };
+    noticeBroker = {
+      url: config.mqtt.url,
+      options: { ...clientOptions, clientId: `${config.mqtt.clientId}-nt` },
+    };
     forecasts = startForecastSubscriber(config.mqtt.url, clientOptions, archive, lifecycle, (m) =>
       log.warn(m),
     );
   }
+
+  if (config.notices?.mqtt ?? true) {
+    const client = connectNoticeClient(noticeBroker.url, noticeBroker.options);
+    notices.outbox.addChannel(mqttChannel(client));
+  }
+  notices.start();
 
   let forwarder: InfluxForwarder | null = null;
   if (config.influx !== null) {
@@ -150,6 +180,7 @@ export async function startServer(
       archive,
       lifecycle,
       live,
+      notices,
       health: () => ({
         live: live.health(),
         forecasts: { ok: true, ...forecasts.counters },
@@ -159,6 +190,7 @@ export async function startServer(
             ? { ok: true, enabled: false }
             : { enabled: true, ...forwarder.state() },
         ingest: ingestor.counters,
+        notices: notices.health(),
       }),
     }),
   );
@@ -185,6 +217,7 @@ export async function startServer(
     broker,
     lifecycle,
     live,
+    notices,
     io,
     logger: log,
     async close() {
@@ -196,6 +229,7 @@ export async function startServer(
       await broker.close();
       await forecasts.close();
       live.close();
+      await notices.close();
       await forwarder?.close();
       archive.close();
     },

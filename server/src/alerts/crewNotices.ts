@@ -41,7 +41,7 @@ export class CrewNotices {
   readonly #archive: Archive;
   readonly #options: AlertOptions;
   readonly #clock: () => number;
-  readonly #onNotice: (notice: Notice) => void;
+  readonly #listeners: ((notice: Notice) => void)[] = [];
   readonly #onError: (runId: string, error: unknown) => void;
   readonly #states = new Map<string, { run: RunRecord; alert: AlertState }>();
   readonly outbox: NoticeOutbox;
@@ -50,12 +50,17 @@ export class CrewNotices {
     this.#archive = archive;
     this.#options = parseAlertOptions(options.alertOptions ?? {});
     this.#clock = options.clock ?? Date.now;
-    this.#onNotice = options.onNotice ?? (() => {});
+    if (options.onNotice !== undefined) this.#listeners.push(options.onNotice);
     this.#onError = options.onError ?? (() => {});
     this.outbox = new NoticeOutbox(archive.notices, options.channels ?? [], {
       ...options.outbox,
       clock: this.#clock,
     });
+  }
+
+  /** Adds a listener told of each new or acknowledged notice (the demo prints them). */
+  listen(listener: (notice: Notice) => void): void {
+    this.#listeners.push(listener);
   }
 
   /** Starts the outbox's polling (retries and deliveries left pending by a restart). */
@@ -108,7 +113,7 @@ export class CrewNotices {
         store.saveAlertState(runId, alert.snapshot());
         return stored;
       });
-      for (const notice of notices) this.#onNotice(notice);
+      for (const notice of notices) this.#announce(notice);
       if (notices.length > 0) void this.outbox.flush().catch(() => undefined);
       return notices;
     } catch (error) {
@@ -134,7 +139,7 @@ export class CrewNotices {
    */
   acknowledge(runId: string, noticeId: string, by: string): Notice | null {
     const notice = this.#archive.notices.acknowledge(runId, noticeId, by, this.#clock());
-    if (notice !== null) this.#onNotice(notice);
+    if (notice !== null) this.#announce(notice);
     return notice;
   }
 
@@ -150,6 +155,16 @@ export class CrewNotices {
   /** Stops the outbox and closes the channels. */
   close(): Promise<void> {
     return this.outbox.close();
+  }
+
+  #announce(notice: Notice): void {
+    for (const listener of this.#listeners) {
+      try {
+        listener(notice);
+      } catch (error) {
+        this.#onError(notice.runId, error);
+      }
+    }
   }
 
   #hosted(runId: string): { run: RunRecord; alert: AlertState } | null {

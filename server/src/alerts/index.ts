@@ -6,6 +6,7 @@ export * from './alertState.ts';
 export * from './noticeText.ts';
 export * from './noticeOutbox.ts';
 export * from './crewNotices.ts';
+export * from './noticeChannels.ts';
 export * from './channels/noticeChannel.ts';
 export * from './channels/logChannel.ts';
 export * from './channels/mqttChannel.ts';

@@ -64,6 +64,11 @@ export class NoticeOutbox {
     };
   }
 
+  /** Adds a channel (the server's MQTT channel, once its broker is up); replaces one of the same name. */
+  addChannel(channel: NoticeChannel): void {
+    this.#channels.set(channel.name, channel);
+  }
+
   /** The channels by name. */
   get channels(): readonly NoticeChannel[] {
     return [...this.#channels.values()];
