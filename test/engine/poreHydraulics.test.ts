@@ -40,6 +40,35 @@ describe('createPoreHydraulics()', () => {
     );
   });
 
+  it('pressureKeepingWater() after a change of scale and storage holds the water, as pressureForWaterContent() does (property)', () => {
+    fc.assert(
+      fc.property(
+        fc.double({ min: 3.7, max: 8.5, noNaN: true }),
+        fc.double({ min: -0.01, max: 0.01, noNaN: true }),
+        fc.boolean(),
+        (logSuction, relativeChange, evaluatedFirst) => {
+          const hydraulics = make();
+          hydraulics.specificStoragePerPa.fill(1e-9);
+          const pressures = Float64Array.from([-(10 ** logSuction), -1e4, -1e5]);
+          const scratch = () => new Float64Array(3);
+          // The fast path needs the cell's table position from the last evaluate().
+          if (evaluatedFirst) hydraulics.evaluate(pressures, scratch(), scratch(), scratch());
+          const pressure = pressures[0] as number;
+          const water = hydraulics.waterContentAt(0, pressure);
+          const scaleBefore = hydraulics.pressureScale[0] as number;
+          hydraulics.diameterScale[0] = 1 + relativeChange;
+          hydraulics.specificStoragePerPa[0] = 1e-9 * (1 - relativeChange);
+          hydraulics.refreshScale();
+          const kept = hydraulics.pressureKeepingWater(0, water, pressure, scaleBefore);
+          const searched = hydraulics.pressureForWaterContent(0, water, pressure);
+          expect(Math.abs(hydraulics.waterContentAt(0, kept) - water)).toBeLessThan(1e-14);
+          expect(Math.abs(kept - searched)).toBeLessThanOrEqual(1e-9 * Math.abs(searched));
+        },
+      ),
+      { numRuns: 100 },
+    );
+  });
+
   it('scales suction with surface tension (Young-Laplace) when a cell warms up', () => {
     const hydraulics = make();
     hydraulics.temperatureK[1] = 313.15;

@@ -264,14 +264,13 @@ export function createElementModel(config: ElementModelConfig): ElementModel {
    */
   const remapPressures = (state: ElementState, onlyMarked = false): void => {
     const pressures = state.transport.pressurePa;
-    const scales = hydraulics.pressureScale;
     for (let i = 0; i < n; i += 1) {
       if (onlyMarked && remapCell[i] === 0) continue;
-      const pressure = pressures[i] as number;
-      pressures[i] = hydraulics.pressureForWaterContent(
+      pressures[i] = hydraulics.pressureKeepingWater(
         i,
         waterBefore[i] as number,
-        (pressure * (scaleBefore[i] as number)) / (scales[i] as number),
+        pressures[i] as number,
+        scaleBefore[i] as number,
       );
     }
   };

@@ -93,6 +93,21 @@ export interface PoreHydraulics extends CellHydraulics {
    * pressure on the flat part holds theta and `guessPa` is kept when it lies there.
    */
   pressureForWaterContent(cell: number, waterContent: number, guessPa: number): number;
+  /**
+   * Liquid pressure (Pa) at which cell i holds water content theta after its curve changed
+   * (temperature, refinement, storage), from its pressure `pressurePa` under the pressure scale
+   * `previousScale` it had before: the same answer as {@link pressureForWaterContent}, without its
+   * logarithm, exponential and search when the last `evaluate()` saw the cell at that pressure
+   * and scale (its table position is kept): the saturation moves along the same table segment,
+   * p' = p (c_old / c_new) exp(du), with exp of the small du from its Taylor series (exact to
+   * rounding for |du| < 1e-3). Otherwise it falls back to {@link pressureForWaterContent}.
+   */
+  pressureKeepingWater(
+    cell: number,
+    waterContent: number,
+    pressurePa: number,
+    previousScale: number,
+  ): number;
   /** Equivalent pore pressure pi of cell i at liquid pressure p, Pa (Coussy 2004). */
   equivalentPorePressurePa(cell: number, pressurePa: number): number;
   /** Air-entry pressure of cell i, Pa (< 0). */
@@ -163,6 +178,11 @@ export function createPoreHydraulics(options: PoreHydraulicsOptions): PoreHydrau
   const vapourFactor = new Float64Array(n); // (D/tau) phi p_sat M / (R T rho_w A)
   const inverseKelvin = new Float64Array(n); // 1 / A
   const airEntryRef = retention.airEntryPressurePa;
+  // What the last evaluate() saw in each unsaturated cell: its pressure, scale and table
+  // position (NaN pressure for saturated cells), for pressureKeepingWater().
+  const evaluatedPressure = new Float64Array(n).fill(Number.NaN);
+  const evaluatedScale = new Float64Array(n);
+  const evaluatedPosition = new Float64Array(n);
 
   const refreshScale = (): void => {
     for (let i = 0; i < n; i += 1) {
@@ -228,6 +248,51 @@ export function createPoreHydraulics(options: PoreHydraulicsOptions): PoreHydrau
     return porosity * lookupSaturation + (storageCoefficient * airEntryRef) / scale;
   };
 
+  const pressureForWaterContent = (cell: number, target: number, guessPa: number): number => {
+    // Exact inverse of the same interpolant the forward curve uses: the storage line above the
+    // air entry, else the table segment holding the target saturation (binary search on the
+    // decreasing node saturations) solved for its position, then p = -exp(u) / c.
+    const scale = pressureScale[cell] as number;
+    const storageCoefficient = specificStoragePerPa[cell] as number;
+    const airEntryWater = porosity + (storageCoefficient * airEntryRef) / scale;
+    if (!(target < airEntryWater)) {
+      if (storageCoefficient > 0) return (target - porosity) / storageCoefficient;
+      return Math.max(guessPa, airEntryRef / scale);
+    }
+    const saturation = (target - (storageCoefficient * airEntryRef) / scale) / porosity;
+    if (!(saturation > (tableSaturation[lastNode] as number))) {
+      // At or below the driest tabulated saturation the curve is flat: keep a guess beyond it.
+      const driestPa = -Math.exp(logStart + lastNode / inverseStep) / scale;
+      return guessPa < driestPa ? guessPa : driestPa;
+    }
+    let low = 0; // tableSaturation[low] >= saturation
+    let high = lastNode; // tableSaturation[high] < saturation
+    // The remaps after a change of temperature or refinement move a cell's saturation very
+    // little: the segment of the guess holds the answer most of the time, without the search.
+    const guessReference = guessPa * scale;
+    if (guessReference < airEntryRef) {
+      const position = (Math.log(-guessReference) - logStart) * inverseStep;
+      const node = position > 0 ? Math.floor(position) : 0;
+      if (
+        node < lastNode &&
+        (tableSaturation[node] as number) >= saturation &&
+        (tableSaturation[node + 1] as number) < saturation
+      ) {
+        low = node;
+        high = node + 1;
+      }
+    }
+    while (high - low > 1) {
+      const middle = (low + high) >> 1;
+      if ((tableSaturation[middle] as number) >= saturation) low = middle;
+      else high = middle;
+    }
+    const s0 = tableSaturation[low] as number;
+    const s1 = tableSaturation[low + 1] as number;
+    const weight = s1 === s0 ? 0 : (saturation - s0) / (s1 - s0);
+    return -Math.exp(logStart + (low + weight) / inverseStep) / scale;
+  };
+
   return {
     retention,
     permeability,
@@ -251,49 +316,29 @@ export function createPoreHydraulics(options: PoreHydraulicsOptions): PoreHydrau
     waterContentAt(cell, pressurePa) {
       return waterContent(cell, pressurePa);
     },
-    pressureForWaterContent(cell, target, guessPa) {
-      // Exact inverse of the same interpolant the forward curve uses: the storage line above the
-      // air entry, else the table segment holding the target saturation (binary search on the
-      // decreasing node saturations) solved for its position, then p = -exp(u) / c.
+    pressureForWaterContent,
+    pressureKeepingWater(cell, target, pressurePa, previousScale) {
       const scale = pressureScale[cell] as number;
-      const storageCoefficient = specificStoragePerPa[cell] as number;
-      const airEntryWater = porosity + (storageCoefficient * airEntryRef) / scale;
-      if (!(target < airEntryWater)) {
-        if (storageCoefficient > 0) return (target - porosity) / storageCoefficient;
-        return Math.max(guessPa, airEntryRef / scale);
-      }
-      const saturation = (target - (storageCoefficient * airEntryRef) / scale) / porosity;
-      if (!(saturation > (tableSaturation[lastNode] as number))) {
-        // At or below the driest tabulated saturation the curve is flat: keep a guess beyond it.
-        const driestPa = -Math.exp(logStart + lastNode / inverseStep) / scale;
-        return guessPa < driestPa ? guessPa : driestPa;
-      }
-      let low = 0; // tableSaturation[low] >= saturation
-      let high = lastNode; // tableSaturation[high] < saturation
-      // The remaps after a change of temperature or refinement move a cell's saturation very
-      // little: the segment of the guess holds the answer most of the time, without the search.
-      const guessReference = guessPa * scale;
-      if (guessReference < airEntryRef) {
-        const position = (Math.log(-guessReference) - logStart) * inverseStep;
+      const position = evaluatedPosition[cell] as number;
+      if (
+        evaluatedPressure[cell] === pressurePa &&
+        evaluatedScale[cell] === previousScale &&
+        position < lastNode
+      ) {
+        const storageCoefficient = specificStoragePerPa[cell] as number;
+        const saturation = (target - (storageCoefficient * airEntryRef) / scale) / porosity;
         const node = position > 0 ? Math.floor(position) : 0;
-        if (
-          node < lastNode &&
-          (tableSaturation[node] as number) >= saturation &&
-          (tableSaturation[node + 1] as number) < saturation
-        ) {
-          low = node;
-          high = node + 1;
+        const s0 = tableSaturation[node] as number;
+        const s1 = tableSaturation[node + 1] as number;
+        if (s1 < s0 && saturation <= s0 && saturation > s1) {
+          const du = (node + (saturation - s0) / (s1 - s0) - position) / inverseStep;
+          if (du > -1e-3 && du < 1e-3) {
+            const growth = 1 + du * (1 + (du / 2) * (1 + (du / 3) * (1 + du / 4)));
+            return ((pressurePa * previousScale) / scale) * growth;
+          }
         }
       }
-      while (high - low > 1) {
-        const middle = (low + high) >> 1;
-        if ((tableSaturation[middle] as number) >= saturation) low = middle;
-        else high = middle;
-      }
-      const s0 = tableSaturation[low] as number;
-      const s1 = tableSaturation[low + 1] as number;
-      const weight = s1 === s0 ? 0 : (saturation - s0) / (s1 - s0);
-      return -Math.exp(logStart + (low + weight) / inverseStep) / scale;
+      return pressureForWaterContent(cell, target, (pressurePa * previousScale) / scale);
     },
     equivalentPorePressurePa(cell, pressurePa) {
       const scale = pressureScale[cell] as number;
@@ -313,11 +358,15 @@ export function createPoreHydraulics(options: PoreHydraulicsOptions): PoreHydrau
           if (storageContent !== undefined) storageContent[i] = stored;
           conductivity[i] = saturatedPermeability * liquid;
           if (conductivitySlope !== undefined) conductivitySlope[i] = 0;
+          evaluatedPressure[i] = Number.NaN;
           continue;
         }
         // The table look-up of `lookup`, inlined with locals: this loop runs for every cell in
         // every iteration, and writes to the shared scratch variables cost more than the maths.
         const position = (Math.log(-reference) - logStart) * inverseStep;
+        evaluatedPressure[i] = pressure;
+        evaluatedScale[i] = scale;
+        evaluatedPosition[i] = position;
         let s: number;
         let permeabilityM2: number;
         let saturationPerU: number; // dS/du
