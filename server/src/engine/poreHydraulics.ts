@@ -178,11 +178,14 @@ export function createPoreHydraulics(options: PoreHydraulicsOptions): PoreHydrau
   const vapourFactor = new Float64Array(n); // (D/tau) phi p_sat M / (R T rho_w A)
   const inverseKelvin = new Float64Array(n); // 1 / A
   const airEntryRef = retention.airEntryPressurePa;
-  // What the last evaluate() saw in each unsaturated cell: its pressure, scale and table
-  // position (NaN pressure for saturated cells), for pressureKeepingWater().
+  // What the last evaluate() saw in each unsaturated cell: its pressure, scale, storage
+  // coefficient, table position and water content (NaN pressure for saturated cells), for
+  // pressureKeepingWater() and waterContentAt(); pressureKeepingWater() records its answers too.
   const evaluatedPressure = new Float64Array(n).fill(Number.NaN);
   const evaluatedScale = new Float64Array(n);
+  const evaluatedStorage = new Float64Array(n);
   const evaluatedPosition = new Float64Array(n);
+  const evaluatedWater = new Float64Array(n);
 
   const refreshScale = (): void => {
     for (let i = 0; i < n; i += 1) {
@@ -244,6 +247,13 @@ export function createPoreHydraulics(options: PoreHydraulicsOptions): PoreHydrau
     const reference = pressurePa * scale;
     const storageCoefficient = specificStoragePerPa[cell] as number;
     if (reference >= airEntryRef) return porosity + storageCoefficient * pressurePa;
+    if (
+      evaluatedPressure[cell] === pressurePa &&
+      evaluatedScale[cell] === scale &&
+      evaluatedStorage[cell] === storageCoefficient
+    ) {
+      return evaluatedWater[cell] as number; // the same numbers, computed by the last evaluate()
+    }
     lookup(reference);
     return porosity * lookupSaturation + (storageCoefficient * airEntryRef) / scale;
   };
@@ -334,7 +344,13 @@ export function createPoreHydraulics(options: PoreHydraulicsOptions): PoreHydrau
           const du = (node + (saturation - s0) / (s1 - s0) - position) / inverseStep;
           if (du > -1e-3 && du < 1e-3) {
             const growth = 1 + du * (1 + (du / 2) * (1 + (du / 3) * (1 + du / 4)));
-            return ((pressurePa * previousScale) / scale) * growth;
+            const found = ((pressurePa * previousScale) / scale) * growth;
+            evaluatedPressure[cell] = found;
+            evaluatedScale[cell] = scale;
+            evaluatedStorage[cell] = storageCoefficient;
+            evaluatedPosition[cell] = position + du * inverseStep;
+            evaluatedWater[cell] = target;
+            return found;
           }
         }
       }
@@ -366,6 +382,7 @@ export function createPoreHydraulics(options: PoreHydraulicsOptions): PoreHydrau
         const position = (Math.log(-reference) - logStart) * inverseStep;
         evaluatedPressure[i] = pressure;
         evaluatedScale[i] = scale;
+        evaluatedStorage[i] = storageCoefficient;
         evaluatedPosition[i] = position;
         let s: number;
         let permeabilityM2: number;
@@ -393,6 +410,7 @@ export function createPoreHydraulics(options: PoreHydraulicsOptions): PoreHydrau
         capacityPerPa[i] = porosity * saturationSlope;
         const stored = (storageCoefficient * airEntryRef) / scale;
         water[i] = porosity * s + stored;
+        evaluatedWater[i] = water[i] as number;
         if (storageContent !== undefined) storageContent[i] = stored;
         // Kelvin h = exp(p / A) inline: this loop runs for every cell in every iteration.
         const inverseA = inverseKelvin[i] as number;
