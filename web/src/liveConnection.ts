@@ -40,7 +40,11 @@ export function connectLive(runId: string, handlers: LiveHandlers): () => void {
       },
     );
   });
-  socket.on('disconnect', () => handlers.onStatus('reconnecting'));
+  socket.on('disconnect', (reason) => {
+    handlers.onStatus('reconnecting');
+    // socket.io retries by itself except after the server closed the socket on purpose.
+    if (reason === 'io server disconnect') socket.connect();
+  });
   socket.on('connect_error', () =>
     handlers.onStatus(everConnected ? 'reconnecting' : 'connecting'),
   );

@@ -145,38 +145,88 @@ describe('the run page', () => {
     expect(await page.evaluate(() => (window as { loadedOnce?: boolean }).loadedOnce)).toBe(true);
   });
 
-  it('logs a measure from the form into the measure log, then ends it', async () => {
+  it('catches up after the live link drops: reconnects, says so meanwhile, and refetches the state it missed', async () => {
     const page = await openRunPage();
+    await expect.poll(() => page.getAttribute('#connection', 'data-status')).toBe('live');
+    const statuses: string[] = [];
+    await page.exposeFunction('recordStatus', (status: string) => statuses.push(status));
+    await page.evaluate(() => {
+      const target = document.getElementById('connection');
+      if (target === null) return;
+      new MutationObserver(() => {
+        void (window as unknown as { recordStatus(status: string): Promise<void> }).recordStatus(
+          target.dataset.status ?? '',
+        );
+      }).observe(target, { attributes: true, attributeFilter: ['data-status'] });
+    });
+    // The page goes offline and the server closes its socket (on purpose: socket.io does not
+    // retry that by itself); the play moves on while the page cannot hear it.
+    const shownBefore = await shownFigures(page);
+    await page.context().setOffline(true);
+    rig.server.io.disconnectSockets(true);
+    await expect.poll(() => page.getAttribute('#connection', 'data-status')).toBe('reconnecting');
+    expect(await page.textContent('#connection')).toContain('Figures may be out of date');
+    const moved = await rig.playUntil(rig.siteTimeMs('16:30'));
+    expect(await shownFigures(page)).toEqual(shownBefore);
+    await page.context().setOffline(false);
+    await expect
+      .poll(
+        async () => {
+          const state = await rig.apiJson<RunState>(`/runs/${rig.runId}/state`);
+          const shown = {
+            status: await page.getAttribute('#connection', 'data-status'),
+            figures: await shownFigures(page),
+            time: (await page.textContent('#event-time'))?.slice(11, 16),
+          };
+          const expected = {
+            status: 'live',
+            figures: expectedFigures(state),
+            time: siteClock(state.eventTimeMs ?? 0),
+          };
+          return JSON.stringify(shown) === JSON.stringify(expected) ? 'caught up' : shown;
+        },
+        { timeout: 20_000, interval: 250 },
+      )
+      .toBe('caught up');
+    expect(moved.eventTimeMs).toBeGreaterThan(rig.siteTimeMs('16:10'));
+    expect(statuses).toContain('reconnecting');
+  });
+
+  it('logs a measure from the form at the time of the latest figures (this run is not live), then ends it', async () => {
+    const page = await openRunPage();
+    const state = await rig.apiJson<RunState>(`/runs/${rig.runId}/state`);
+    // The demo's July readings are months from this machine's clock: "now" is their time.
+    const eventAt = new Date(state.eventTimeMs ?? 0).toISOString();
     await page.selectOption('#measure-kind', 'fogging');
     await page.fill('#measure-by', 'Site engineer (browser test)');
     await page.click('#measure-form button[type="submit"]');
     type Measures = {
-      measures: { id: string; kind: string; loggedBy: string; endAt: string | null }[];
+      measures: { kind: string; loggedBy: string; startAt: string; endAt: string | null }[];
     };
+    const measures = async () =>
+      (await rig.apiJson<Measures>(`/runs/${rig.runId}/measures`)).measures;
+    await expect.poll(measures, { timeout: 10_000 }).toEqual([
+      expect.objectContaining({
+        kind: 'fogging',
+        loggedBy: 'Site engineer (browser test)',
+        startAt: eventAt,
+        endAt: null,
+      }),
+    ]);
     await expect
-      .poll(async () => (await rig.apiJson<Measures>(`/runs/${rig.runId}/measures`)).measures, {
-        timeout: 10_000,
-      })
-      .toEqual([
-        expect.objectContaining({
-          kind: 'fogging',
-          loggedBy: 'Site engineer (browser test)',
-          endAt: null,
-        }),
-      ]);
+      .poll(() => page.textContent('#measure-form .form-message'))
+      .toBe(
+        `Logged: fogging by Site engineer (browser test), from 2026-07-16 ${siteClock(state.eventTimeMs ?? 0)}.`,
+      );
     const row = page.locator('#measure-table tbody tr');
     await expect.poll(() => row.count()).toBe(1);
     expect(await row.first().textContent()).toContain('still applied');
     await row.first().locator('button', { hasText: 'End now' }).click();
-    await expect
-      .poll(
-        async () => (await rig.apiJson<Measures>(`/runs/${rig.runId}/measures`)).measures[0]?.endAt,
-      )
-      .not.toBeNull();
-    await expect
-      .poll(async () => row.first().textContent())
-      .toContain('Site engineer (browser test)');
-    expect(await row.first().textContent()).not.toContain('still applied');
+    await expect.poll(async () => (await measures())[0]?.endAt).toBe(eventAt);
+    await expect.poll(() => row.first().textContent()).not.toContain('still applied');
+    expect(await row.first().textContent()).toContain(
+      `${siteClock(state.eventTimeMs ?? 0)} (Site engineer (browser test))`,
+    );
   });
 
   it('fits a phone: no sideways scrolling, the level and figures on top, the caution always in sight', async () => {

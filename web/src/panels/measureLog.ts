@@ -9,10 +9,13 @@ import { rememberName, rememberedName } from '../personName.ts';
 import { formatSiteDateTime } from '../siteTime.ts';
 import { MEASURE_KINDS, measureKindWords } from '../words.ts';
 
-/** What the panel asks of the page: log a measure, end one (both reject with the server's message). */
+/**
+ * What the panel asks of the page: log a measure starting now, end one now. Both resolve with
+ * the measure as the server stored it and reject with the server's message.
+ */
 export interface MeasureActions {
-  start(kind: string, loggedBy: string): Promise<void>;
-  end(measure: Measure, endedBy: string): Promise<void>;
+  start(kind: string, loggedBy: string): Promise<Measure>;
+  end(measure: Measure, endedBy: string): Promise<Measure>;
 }
 
 export interface MeasureLogPanel {
@@ -58,8 +61,8 @@ export function measureLogPanel(actions: MeasureActions): MeasureLogPanel {
     message.textContent = 'Logging...';
     actions
       .start(kind.value, loggedBy)
-      .then(() => {
-        message.textContent = `Logged: ${measureKindWords(kind.value)}, by ${loggedBy}.`;
+      .then((measure) => {
+        message.textContent = `Logged: ${measureKindWords(measure.kind)} by ${measure.loggedBy}, from ${formatSiteDateTime(Date.parse(measure.startAt), shownOffsetMin)}.`;
       })
       .catch((error: unknown) => {
         message.textContent = `Not logged: ${(error as Error).message}`;
@@ -69,6 +72,7 @@ export function measureLogPanel(actions: MeasureActions): MeasureLogPanel {
       });
   });
   const element = el('div', {}, form, table);
+  let shownOffsetMin = 0;
 
   const endButton = (measure: Measure) => {
     const button = el('button', { type: 'button', class: 'secondary' }, 'End now');
@@ -91,6 +95,7 @@ export function measureLogPanel(actions: MeasureActions): MeasureLogPanel {
   return {
     element,
     update(measures, offsetMin, runOpen) {
+      shownOffsetMin = offsetMin;
       form.hidden = !runOpen;
       if (measures.length === 0) {
         replaceChildren(table, el('p', { class: 'empty' }, 'No measures logged.'));

@@ -8,6 +8,7 @@ import type { FigurePoint, Measure, Notice, RunDetail, RunState } from '../contr
 import { el, panel, replaceChildren } from '../dom.ts';
 import { figurePointOf, mergeFigurePoints } from '../figureHistory.ts';
 import { connectLive } from '../liveConnection.ts';
+import { measureTimeFor } from '../measureClock.ts';
 import { upsertNotice } from '../noticeFeed.ts';
 import { siteOffsetMin, formatUtcOffset } from '../siteTime.ts';
 import { renderCalibrationTable } from '../panels/calibrationTable.ts';
@@ -69,12 +70,23 @@ export async function showRunPage(root: HTMLElement, runId: string): Promise<() 
   };
   const measureLog = measureLogPanel({
     start: async (kind, loggedBy) => {
-      await postJson(`${base}/measures`, { kind, loggedBy });
+      const startAt = measureTimeFor(state?.eventTimeMs ?? null, Date.now());
+      const logged = await postJson<Measure>(`${base}/measures`, {
+        kind,
+        loggedBy,
+        ...(startAt === null ? {} : { startAt }),
+      });
       await loadMeasures();
+      return logged;
     },
     end: async (measure, endedBy) => {
-      await postJson(`${base}/measures/${encodeURIComponent(measure.id)}/end`, { endedBy });
+      const endAt = measureTimeFor(state?.eventTimeMs ?? null, Date.now());
+      const ended = await postJson<Measure>(
+        `${base}/measures/${encodeURIComponent(measure.id)}/end`,
+        { endedBy, ...(endAt === null ? {} : { endAt }) },
+      );
       await loadMeasures();
+      return ended;
     },
   });
 
