@@ -1,7 +1,7 @@
 /**
  * One analysis of the live ensemble: the calibration core's ETKF (or serial EnSRF with
  * localisation) with the engine's inflation, then the analysed members written back into their
- * element states. Before the surface's final set only what the probes can inform is kept (see
+ * element states. Before the element's final set only what the probes can inform is kept (see
  * `plasticPhaseUpdates` in types.ts).
  */
 import { assimilate } from '../calibration/index.ts';
@@ -23,7 +23,7 @@ export interface AnalysisContext {
   specs: readonly ParameterSpec[];
   layout: StateLayout;
   options: ResolvedOptions;
-  /** Whether the surface has not reached final set yet. */
+  /** Whether the element has not reached final set yet (ElementModel.hasSet, member 0). */
   plastic: boolean;
 }
 

@@ -229,14 +229,13 @@ export function createRunEngine(
         });
       }
       if (opts.assimilation && observations.length > 0) {
-        const finalSetS = model.material.mix?.finalSetEquivalentAgeS ?? 0;
-        const surfaceAgeS = ensemble.members[0]?.carried.equivalentAgeS[0] ?? 0;
+        const member0 = ensemble.members[0];
         ensemble = analysisStep(ensemble, observations, {
           operator,
           specs,
           layout,
           options: opts,
-          plastic: surfaceAgeS < finalSetS,
+          plastic: member0 !== undefined && !model.hasSet(member0.carried),
         });
       }
       const member0 = ensemble.members[0];

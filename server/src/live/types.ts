@@ -95,7 +95,7 @@ export interface RunEngineOptions {
    */
   analysisUpdates?: 'state-and-parameters' | 'parameters';
   /**
-   * What an analysis before final set (of the surface, member 0) updates: 'biases' (only the
+   * What an analysis before final set (of the element, member 0) updates: 'biases' (only the
    * probes' RH biases), 'state-and-biases' (also the cell suctions and the bleed film) or 'all'
    * (also permeability, exposure, curing efficiency, initial film, as after set)
    * ['state-and-biases', our choice from the twin and early-warning experiments]. Before set the
