@@ -2,9 +2,11 @@
  * `npm run demo`: starts the server (embedded broker and archive, or whatever the MENISCUS_*
  * variables configure, exactly as `npm start`), creates the demo scenario's run over the HTTP
  * API, plays the scenario with the engine as hidden truth, logs the crew's measures over the
- * API as they start, and prints the server's addresses. The server keeps serving after the play
+ * API as they start, prints each crew notice as the server raises it, and prints the server's
+ * addresses. The server keeps serving after the play
  * until Ctrl-C.
  */
+import type { Notice } from '../../server/src/alerts/types.ts';
 import type { ServerConfig } from '../../server/src/config/index.ts';
 import { startServer } from '../../server/src/server.ts';
 import type { RunningServer } from '../../server/src/server.ts';
@@ -51,6 +53,8 @@ export interface DemoRun {
   utcOffsetMin: number;
   /** The server's state as polled during the play, every 10 min of event time. */
   serverStates(): readonly ServerStateSample[];
+  /** The crew notices the server raised for the run so far, in order. */
+  notices(): readonly Notice[];
 }
 
 /** What the demo keeps of GET /api/runs/:id/state. */
@@ -91,6 +95,34 @@ export function warningSummary(
       ? 'the server never expected it to close'
       : `the server first expected closing at ${time(first.expectedClosingMs as number)}, saying so at ${time(first.eventTimeMs as number)}`;
   return `Warning check: ${truthText}; ${serverText}.`;
+}
+
+/**
+ * One line on the crew notices against the hidden truth: how many of each level, and when the
+ * first ACT NOW or CRACKING LIKELY went out compared with the truth's margin closing.
+ */
+export function noticeSummary(
+  truthClosedAtMs: number | null,
+  notices: readonly Pick<Notice, 'level' | 'raisedAtMs'>[],
+  utcOffsetMinutes: number,
+): string {
+  const levels = ['NOTE', 'PREPARE', 'ACT NOW', 'CRACKING LIKELY'] as const;
+  const counts = levels
+    .map((level) => [level, notices.filter((notice) => notice.level === level).length] as const)
+    .filter(([, count]) => count > 0)
+    .map(([level, count]) => `${count} ${level}`);
+  const first = notices.find((n) => n.level === 'ACT NOW' || n.level === 'CRACKING LIKELY');
+  const time = (ms: number) => scenarioLocalTime(ms, utcOffsetMinutes).slice(11);
+  const firstText =
+    first === undefined
+      ? 'no ACT NOW or CRACKING LIKELY'
+      : `the first ${first.level} at ${time(first.raisedAtMs)}` +
+        (truthClosedAtMs === null
+          ? ''
+          : first.raisedAtMs < truthClosedAtMs
+            ? `, ${Math.round((truthClosedAtMs - first.raisedAtMs) / 60_000)} min before the hidden truth's margin closed`
+            : `, ${Math.round((first.raisedAtMs - truthClosedAtMs) / 60_000)} min after the hidden truth's margin closed`);
+  return `Crew notices: ${notices.length === 0 ? 'none' : counts.join(', ')}; ${firstText}.`;
 }
 
 /** A figure with two decimals, without a minus sign on a rounded zero. */
@@ -181,6 +213,12 @@ export async function startDemo(options: DemoOptions): Promise<DemoRun> {
       await postMeasure(measure);
     };
     const offsetMin = utcOffsetMin(scenario.startAt);
+    const raised: Notice[] = [];
+    server.notices.listen((notice) => {
+      if (notice.runId !== runId || raised.some((known) => known.id === notice.id)) return;
+      raised.push(notice);
+      print(`  ${scenarioLocalTime(notice.raisedAtMs, offsetMin)}  notice  ${notice.title}`);
+    });
     let lastPrintMs = 0;
     let lastStateMs = 0;
     let truthClosedAtMs: number | null = null;
@@ -239,6 +277,7 @@ export async function startDemo(options: DemoOptions): Promise<DemoRun> {
       truthMarginClosedAtMs: () => truthClosedAtMs,
       utcOffsetMin: offsetMin,
       serverStates: () => states,
+      notices: () => raised,
     };
   } catch (error) {
     await server.close();

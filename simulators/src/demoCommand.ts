@@ -5,7 +5,7 @@
 import { Command, CommanderError, InvalidArgumentError } from 'commander';
 import { serverConfigFromEnv } from '../../server/src/config/index.ts';
 import { checkSpeed } from './playClock.ts';
-import { startDemo, warningSummary } from './demo.ts';
+import { noticeSummary, startDemo, warningSummary } from './demo.ts';
 
 const numberFlag = (flag: string, check: (value: number) => number) => (text: string) => {
   const value = Number(text);
@@ -80,6 +80,7 @@ export async function demoMain(argv: readonly string[], env: NodeJS.ProcessEnv):
       console.log(
         warningSummary(demo.truthMarginClosedAtMs(), demo.serverStates(), demo.utcOffsetMin),
       );
+      console.log(noticeSummary(demo.truthMarginClosedAtMs(), demo.notices(), demo.utcOffsetMin));
       const counts = `${result.packsSent} packs sent (${result.packsDropped} lost on purpose, ${result.packsSilenced} held back by the scripted silence)`;
       console.log(
         controller.signal.aborted

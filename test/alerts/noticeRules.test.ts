@@ -81,7 +81,7 @@ describe('noticeRules()', () => {
     {
       name: 'NOTE for a silent probe',
       figures: { flags: [{ code: 'probe-silent', message: 'probe probe-a/rh-10 silent' }] },
-      expected: { 'sensor:probe-silent:probe probe-a/rh-10': 'NOTE (sensor-silent)' },
+      expected: { 'sensor:probe-a': 'NOTE (sensor-silent)' },
     },
     {
       name: 'no NOTE for weather held a few minutes',
@@ -148,6 +148,22 @@ describe('noticeRules()', () => {
     );
     // T0 is 12:20 on site; 70 min later is 13:30
     expect(findings.raise[0]?.reason).toContain('at about 13:30, in about 1 h 10 min');
+  });
+
+  it('gathers the silent sensors of one device into one condition, with the time since when', () => {
+    const flags = ['rh-10', 't-10'].map((sensor) => ({
+      code: 'probe-silent',
+      message: `probe probe-a/${sensor} silent`,
+    }));
+    const findings = noticeRules(runState({ flags }), CONFIG, DEFAULT_ALERT_OPTIONS);
+    expect(findings.raise).toEqual([
+      {
+        key: 'sensor:probe-a',
+        kind: 'sensor-silent',
+        level: 'NOTE',
+        reason: 'no rh-10, t-10 reading from probe-a since 12:20',
+      },
+    ]);
   });
 
   it('noticeFigures() quotes the median closing, the probability and the figures now', () => {

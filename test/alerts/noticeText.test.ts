@@ -67,10 +67,10 @@ describe('noticeText()', () => {
       draft: draft({
         level: 'CRACKING LIKELY',
         kind: 'utilization',
-        figures: { ...draft({}).figures, expectedClosingMs: null },
+        figures: { ...draft({}).figures, utilization: 1.05, expectedClosingMs: null },
       }),
       phase: 'hardening' as const,
-      title: 'CRACKING LIKELY: protect the surface at once',
+      title: 'CRACKING LIKELY: protect the surface at once - stress has reached strength',
       parts: ['At once, cover the surface', 'Check the surface for fine cracks'],
       absent: [],
     },
@@ -88,12 +88,15 @@ describe('noticeText()', () => {
       draft: draft({
         level: 'NOTE',
         kind: 'sensor-silent',
-        conditionKey: 'sensor:probe-silent:probe probe-a/rh-10',
-        reasons: ['probe probe-a/rh-10 silent'],
+        conditionKey: 'sensor:probe-a',
+        reasons: ['no rh-10 reading from probe-a since 12:05'],
       }),
       phase: 'hardening' as const,
-      title: 'NOTE: a sensor is silent - probe probe-a/rh-10',
-      parts: ['What is happening: Probe probe-a/rh-10 silent.', 'its cable and its power'],
+      title: 'NOTE: a sensor is silent - probe-a',
+      parts: [
+        'What is happening: No rh-10 reading from probe-a since 12:05.',
+        'its cables and its power',
+      ],
       absent: [],
     },
     {

@@ -11,7 +11,12 @@ import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { serverConfigFromEnv } from '../../server/src/config/serverConfig.ts';
-import { startDemo, warningSummary } from '../../simulators/src/demo.ts';
+import {
+  noticeSummary,
+  scenarioLocalTime,
+  startDemo,
+  warningSummary,
+} from '../../simulators/src/demo.ts';
 import type { DemoRun } from '../../simulators/src/demo.ts';
 import { virtualClock } from '../../simulators/src/playClock.ts';
 import type { PlayResult } from '../../simulators/src/playScenario.ts';
@@ -113,9 +118,27 @@ describe('the demo (server, run over HTTP, scenario on the engine truth)', () =>
     expect(warned, JSON.stringify(demo.serverStates())).toBeDefined();
   });
 
-  it.todo(
-    'GET /api/runs/:id/notices holds a notice raised before the truth margin closed (waits on the notices API)',
-  );
+  it("GET /api/runs/:id/notices holds an ACT NOW or CRACKING LIKELY raised (event time) before the truth's margin closed, and the demo printed it", async () => {
+    const closedAt = demo.truthMarginClosedAtMs() as number;
+    const response = await fetch(`${demo.baseUrl}/api/runs/${demo.runId}/notices`);
+    expect(response.status).toBe(200);
+    const body = (await response.json()) as {
+      runId: string;
+      notices: { level: string; raisedAtMs: number; title: string; text: string }[];
+    };
+    expect(body.runId).toBe(demo.runId);
+    const warnings = body.notices.filter(
+      (notice) =>
+        (notice.level === 'ACT NOW' || notice.level === 'CRACKING LIKELY') &&
+        notice.raisedAtMs < closedAt,
+    );
+    expect(warnings, JSON.stringify(body.notices.map((n) => n.title))).not.toEqual([]);
+    const first = warnings.at(-1); // newest first: the last is the earliest
+    expect(printed).toContain(
+      `  ${scenarioLocalTime(first?.raisedAtMs ?? 0, demo.utcOffsetMin)}  notice  ${first?.title}`,
+    );
+    expect(first?.text).toContain('Estimates only');
+  });
 });
 
 describe('the demo with the measure log "fogging"', () => {
@@ -151,6 +174,8 @@ describe('the demo with the measure log "fogging"', () => {
         { kind: 'windbreak', windFactor: 0.4 },
       ]);
       expect(printed.filter((line) => line.includes('did not log the measure'))).toEqual([]);
+      // the crew acted on time: no notice says cracking is likely
+      expect(demo.notices().filter((notice) => notice.level === 'CRACKING LIKELY')).toEqual([]);
     } finally {
       await demo.server.close();
       rmSync(dataDir, { recursive: true, force: true });
@@ -208,5 +233,29 @@ describe('warningSummary()', () => {
     },
   ])('$expected', ({ truth, states, expected }) => {
     expect(warningSummary(truth, states, 120)).toBe(expected);
+  });
+});
+
+describe('noticeSummary()', () => {
+  const at = (time: string) => Date.parse(`2026-07-16T${time}:00+02:00`);
+  it.each([
+    {
+      truth: at('13:17'),
+      notices: [
+        { level: 'PREPARE' as const, raisedAtMs: at('11:20') },
+        { level: 'ACT NOW' as const, raisedAtMs: at('12:20') },
+        { level: 'CRACKING LIKELY' as const, raisedAtMs: at('12:55') },
+      ],
+      expected:
+        "Crew notices: 1 PREPARE, 1 ACT NOW, 1 CRACKING LIKELY; the first ACT NOW at 12:20, 57 min before the hidden truth's margin closed.",
+    },
+    {
+      truth: null,
+      notices: [{ level: 'NOTE' as const, raisedAtMs: at('16:30') }],
+      expected: 'Crew notices: 1 NOTE; no ACT NOW or CRACKING LIKELY.',
+    },
+    { truth: null, notices: [], expected: 'Crew notices: none; no ACT NOW or CRACKING LIKELY.' },
+  ])('$expected', ({ truth, notices, expected }) => {
+    expect(noticeSummary(truth, notices, 120)).toBe(expected);
   });
 });

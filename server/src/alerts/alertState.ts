@@ -113,7 +113,7 @@ export class AlertState {
           const current = (hold.get(key) ?? []).filter((c) => c.level === concern.level);
           draft({
             level: concern.level,
-            kind: concern.kind,
+            kind: current[0]?.kind ?? concern.kind,
             conditionKey: key,
             reasons: unique(current.map((c) => c.reason)),
             eased: null,

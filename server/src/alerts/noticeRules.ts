@@ -12,7 +12,7 @@ import type { RunState } from '../live/types.ts';
 import type { AlertOptions } from './alertOptions.ts';
 import type { Condition, NoticeFigures, RuleFindings } from './types.ts';
 import { marginConditions } from './_marginRules.ts';
-import { formatDuration } from './_localTime.ts';
+import { formatDuration, localClock, offsetMinOf } from './_localTime.ts';
 
 /** Quality flags that say a sensor is silent (server/src/live/runEngine.ts). */
 const SILENT_FLAGS = ['probe-silent', 'weather-gap'];
@@ -29,7 +29,8 @@ const DEGRADED_FLAGS = ['weather-missing', 'model-refused'];
  *   precaution threshold, 1.0 kg/m2/h; physics.md 7), or, before final set, when it exceeds the
  *   mix's bleed rate (`mix.bleedRateKgM2h`), so the bleed water is running out (physics.md 7,
  *   common practice);
- * - NOTE for each silent sensor (`probe-silent`, `weather-gap` flags), for figures resting on
+ * - NOTE for each device with a silent sensor (`probe-silent`, `weather-gap` flags; one notice
+ *   per device, as a probe string falls silent as a whole), for figures resting on
  *   missing data (`weather-missing`, `model-refused`), and once the in-place strength reaches
  *   the engine's target (timeToTargetStrengthH is 0).
  *
@@ -49,12 +50,12 @@ export function noticeRules(
     raise: [
       ...marginConditions(state, config, options, false),
       ...dryingConditions(state, config, options, false),
-      ...dataConditions(state, options),
+      ...dataConditions(state, config, options),
     ],
     hold: [
       ...marginConditions(state, config, options, true),
       ...dryingConditions(state, config, options, true),
-      ...dataConditions(state, options),
+      ...dataConditions(state, config, options),
     ],
     figures,
   };
@@ -123,18 +124,31 @@ function dryingConditions(
   return [];
 }
 
-function dataConditions(state: RunState, options: AlertOptions): Condition[] {
+function dataConditions(state: RunState, config: RunConfig, options: AlertOptions): Condition[] {
   const conditions: Condition[] = [];
+  const offset = offsetMinOf(config.placedAt);
   if (options.dataNotes) {
+    // one concern per device: a probe string that goes silent silences all its sensors at once
+    const silent = new Map<string, { sensors: string[]; sinceMs: number }>();
     for (const flag of state.quality.flags) {
-      if (SILENT_FLAGS.includes(flag.code)) {
-        conditions.push({
-          key: `sensor:${flag.code}:${flag.message.split(' ').slice(0, 2).join(' ')}`,
-          kind: 'sensor-silent',
-          level: 'NOTE',
-          reason: flag.message,
-        });
-      } else if (DEGRADED_FLAGS.includes(flag.code)) {
+      if (!SILENT_FLAGS.includes(flag.code)) continue;
+      const subject = flag.code === 'probe-silent' ? silentProbe(flag.message) : null;
+      const device = subject?.split('/')[0] ?? config.weather.device;
+      const entry = silent.get(device) ?? { sensors: [], sinceMs: flag.sinceMs };
+      entry.sensors.push(subject?.split('/')[1] ?? flag.message.split(' ')[0] ?? flag.code);
+      entry.sinceMs = Math.min(entry.sinceMs, flag.sinceMs);
+      silent.set(device, entry);
+    }
+    for (const [device, { sensors, sinceMs }] of silent) {
+      conditions.push({
+        key: `sensor:${device}`,
+        kind: 'sensor-silent',
+        level: 'NOTE',
+        reason: `no ${sensors.join(', ')} reading from ${device} since ${localClock(sinceMs, offset)}`,
+      });
+    }
+    for (const flag of state.quality.flags) {
+      if (DEGRADED_FLAGS.includes(flag.code)) {
         conditions.push({
           key: `data:${flag.code}`,
           kind: 'data-degraded',
@@ -156,6 +170,11 @@ function dataConditions(state: RunState, options: AlertOptions): Condition[] {
     });
   }
   return conditions;
+}
+
+/** `probe-c7/rh-05` of the engine's flag message `probe probe-c7/rh-05 silent`, or null. */
+function silentProbe(message: string): string | null {
+  return /^probe (\S+) silent/.exec(message)?.[1] ?? null;
 }
 
 function finite(value: number | null | undefined): number | null {

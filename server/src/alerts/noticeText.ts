@@ -33,8 +33,6 @@ const MEASURES: Record<'plastic' | 'hardening', string> = {
 function concernName(conditionKey: string): string {
   if (conditionKey === 'margin') return 'cracking warning';
   if (conditionKey === 'drying') return 'fast-drying warning';
-  if (conditionKey.startsWith('sensor:'))
-    return `silent sensor (${conditionKey.split(':')[2] ?? ''})`;
   if (conditionKey.startsWith('data:')) return 'missing-data warning';
   return 'notice';
 }
@@ -85,10 +83,19 @@ function wording(
 ): { headline: string; happening: string; todo: string } {
   const reasons = draft.reasons.join('; ');
   const closing = draft.figures.expectedClosingMs;
+  const u = draft.figures.utilization;
+  const against = phase === 'plastic' ? 'suction at' : 'stress at';
+  const of = phase === 'plastic' ? 'of air entry' : 'of strength';
   const closesIn =
-    closing === null
-      ? ''
-      : ` - margin closes at about ${localClock(closing, offset)}, in about ${formatDuration(closing - draft.raisedAtMs)}`;
+    draft.kind === 'utilization' && u !== null
+      ? u >= 1
+        ? ` - ${phase === 'plastic' ? 'suction has reached air entry' : 'stress has reached strength'}`
+        : ` - ${against} ${Math.round(u * 100)} % ${of}`
+      : closing === null
+        ? ''
+        : closing <= draft.raisedAtMs
+          ? ' - the margin is closing now'
+          : ` - margin closes at about ${localClock(closing, offset)}, in about ${formatDuration(closing - draft.raisedAtMs)}`;
   const drying =
     phase === 'plastic'
       ? 'the surface is drying faster than water reaches it from below'
@@ -124,9 +131,9 @@ function wording(
     }
     case 'sensor-silent':
       return {
-        headline: `a sensor is silent - ${draft.conditionKey.split(':')[2] ?? ''}`,
+        headline: `a sensor is silent - ${draft.conditionKey.slice('sensor:'.length)}`,
         happening: reasons,
-        todo: 'check the sensor, its cable and its power. Until it reports again the figures lean on the other sensors',
+        todo: 'check the device, its cables and its power. Until it reports again the figures lean on the other sensors',
       };
     case 'data-degraded':
       return {
@@ -149,16 +156,23 @@ function wording(
     case 'eased': {
       const from = draft.eased?.from ?? 'NOTE';
       const to = draft.eased?.to ?? null;
+      if (draft.conditionKey.startsWith('sensor:')) {
+        const device = draft.conditionKey.slice('sensor:'.length);
+        return {
+          headline: `${device} is reporting again`,
+          happening: `readings from ${device} have been arriving again for ${dwellMin} min`,
+          todo: 'nothing',
+        };
+      }
       const name = concernName(draft.conditionKey);
       return {
         headline: `eased - the ${name} (${from}) has cleared${to === null ? '' : `; ${to} still holds`}`,
         happening:
           `what raised the ${from} ${name} has stayed below its threshold for ${dwellMin} min` +
           (to === null || reasons === '' ? '' : `. Still: ${reasons}`),
-        todo:
-          draft.conditionKey.startsWith('sensor:') || draft.conditionKey.startsWith('data:')
-            ? 'nothing'
-            : 'keep the measures in place until the site engineer decides; the watch goes on',
+        todo: draft.conditionKey.startsWith('data:')
+          ? 'nothing'
+          : 'keep the measures in place until the site engineer decides; the watch goes on',
       };
     }
   }
