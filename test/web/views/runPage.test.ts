@@ -252,7 +252,64 @@ describe('the run page', () => {
   });
 });
 
+/** A notice as the test reads it from GET /api/runs/:id/notices. */
+interface NoticeJson {
+  id: string;
+  seq: number;
+  level: string;
+  kind: string;
+  conditionKey?: string;
+  title: string;
+  acknowledgedBy: string | null;
+}
+
+const LEVEL_ORDER = ['NOTE', 'PREPARE', 'ACT NOW', 'CRACKING LIKELY'];
+
+/**
+ * The level the page must show on top, worked out here on its own: the newest notice of each
+ * concern, then the most urgent of those (the newest among equals).
+ */
+function expectedTopNotice(notices: readonly NoticeJson[]): NoticeJson | undefined {
+  const newest = new Map<string, NoticeJson>();
+  for (const notice of notices) {
+    const key = notice.conditionKey ?? notice.kind;
+    if ((newest.get(key)?.seq ?? -1) < notice.seq) newest.set(key, notice);
+  }
+  return [...newest.values()].sort(
+    (a, b) => LEVEL_ORDER.indexOf(b.level) - LEVEL_ORDER.indexOf(a.level) || b.seq - a.seq,
+  )[0];
+}
+
 describe('crew notices on the run page', () => {
+  it("shows the run's crew notices: the level on top in words with its title, every notice newest first, and acknowledges one", async () => {
+    const page = await openRunPage();
+    type Notices = { notices: NoticeJson[] };
+    const { notices } = await rig.apiJson<Notices>(`/runs/${rig.runId}/notices`);
+    // Without measures, the scenario's margin closes in the afternoon: the server has warned.
+    expect(notices.length).toBeGreaterThan(0);
+    const top = expectedTopNotice(notices);
+    await expect.poll(() => page.textContent('#notice-level')).toBe(top?.level);
+    expect(await page.textContent('#notice-title')).toBe(top?.title);
+    const listed = await page.$$eval('#notice-list li.notice', (items) =>
+      items.map((item) => item.id),
+    );
+    expect(listed).toEqual(notices.map((notice) => `notice-${notice.id}`));
+    const open = notices.find((notice) => notice.acknowledgedBy === null);
+    expect(open, 'a notice not yet acknowledged').toBeDefined();
+    const form = page.locator(`#notice-${open?.id ?? ''} form.ack-form`);
+    await form.locator('input').fill('Crew lead (browser test)');
+    await form.locator('button', { hasText: 'Acknowledge' }).click();
+    await expect
+      .poll(async () => {
+        const after = await rig.apiJson<Notices>(`/runs/${rig.runId}/notices`);
+        return after.notices.find((notice) => notice.id === open?.id)?.acknowledgedBy;
+      })
+      .toBe('Crew lead (browser test)');
+    await expect
+      .poll(() => page.textContent(`#notice-${open?.id ?? ''} .acknowledged`))
+      .toMatch(/^Acknowledged by Crew lead \(browser test\) at \d\d:\d\d\.$/);
+  });
+
   it('shows a pushed `notice` event at once: the level in words on top with its title, the text and each delivery', async () => {
     const page = await openRunPage();
     // A notice as the contract describes it, pushed through the server's own socket.io room.
