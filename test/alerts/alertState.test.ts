@@ -11,9 +11,11 @@ function play(
   steps: StateFigures[],
   state = new AlertState(DEFAULT_ALERT_OPTIONS),
   acknowledged: (id: string) => boolean = () => false,
+  fromStep = 0,
 ): string[] {
   const lines: string[] = [];
-  steps.forEach((figures, index) => {
+  steps.forEach((figures, stepIndex) => {
+    const index = fromStep + stepIndex;
     const timeMs = T0 + index * 5 * MIN;
     const findings = noticeRules(runState({ ...figures, timeMs }), CONFIG, DEFAULT_ALERT_OPTIONS);
     for (const draft of state.update(findings, timeMs, acknowledged)) {
@@ -103,6 +105,22 @@ describe('AlertState', () => {
       '0 ACT NOW utilization',
     ]);
     expect(play(repeat({ probability: 0.5 }, 13))).toEqual(['0 PREPARE margin-outlook']);
+  });
+
+  it('update() stops repeating once any notice of the level (the first or a repeat) is acknowledged', () => {
+    const acked = new Set<string>();
+    const state = new AlertState(DEFAULT_ALERT_OPTIONS);
+    const lines = play(repeat({ utilization: 0.6 }, 7), state, (id) => acked.has(id));
+    expect(lines).toEqual(['0 ACT NOW utilization', '30 ACT NOW utilization repeat']);
+    acked.add('n-6'); // the repeat, sent at step 6
+    expect(play(repeat({ utilization: 0.6 }, 14), state, (id) => acked.has(id), 7)).toEqual([]);
+    // without the acknowledgement it would have repeated at 60 and 90 min
+    const twin = new AlertState(DEFAULT_ALERT_OPTIONS);
+    play(repeat({ utilization: 0.6 }, 7), twin);
+    expect(play(repeat({ utilization: 0.6 }, 14), twin, () => false, 7)).toEqual([
+      '60 ACT NOW utilization repeat',
+      '90 ACT NOW utilization repeat',
+    ]);
   });
 
   it('update() repeats never when renotifyMin is 0', () => {

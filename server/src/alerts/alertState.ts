@@ -26,8 +26,8 @@ export interface RaisedConcern {
   kind: Condition['kind'];
   /** Event time of the last notice of this concern (raise, escalation, repeat or easing), ms. */
   notifiedAtMs: number;
-  /** Id of the last notice at `level` (its acknowledgement stops the repeats). */
-  noticeId: string | null;
+  /** Ids of the notices sent at `level`, the first and its repeats (acknowledging any stops the repeats). */
+  noticeIds: string[];
   /** Event time since which the hold conditions are below `level`, ms; null while they hold. */
   belowSinceMs: number | null;
 }
@@ -60,7 +60,12 @@ export class AlertState {
 
   /** The concerns raised now, by key (copies). */
   concerns(): Record<string, RaisedConcern> {
-    return Object.fromEntries([...this.#concerns].map(([key, value]) => [key, { ...value }]));
+    return Object.fromEntries(
+      [...this.#concerns].map(([key, value]) => [
+        key,
+        { ...value, noticeIds: [...value.noticeIds] },
+      ]),
+    );
   }
 
   /**
@@ -94,7 +99,7 @@ export class AlertState {
           level: top.level,
           kind: top.kind,
           notifiedAtMs: eventTimeMs,
-          noticeId: null,
+          noticeIds: [],
           belowSinceMs: null,
         });
         draft({
@@ -107,7 +112,7 @@ export class AlertState {
         concern.belowSinceMs = null;
         const repeatMs = this.#options.renotifyMin * 60_000;
         const repeats = levelRank(concern.level) >= levelRank('ACT NOW') && repeatMs > 0;
-        const acknowledged = concern.noticeId !== null && isAcknowledged(concern.noticeId);
+        const acknowledged = concern.noticeIds.some((id) => isAcknowledged(id));
         if (repeats && !acknowledged && eventTimeMs - concern.notifiedAtMs >= repeatMs) {
           concern.notifiedAtMs = eventTimeMs;
           const current = (hold.get(key) ?? []).filter((c) => c.level === concern.level);
@@ -136,6 +141,7 @@ export class AlertState {
         else {
           concern.level = held.level;
           concern.kind = held.kind;
+          concern.noticeIds = [];
           concern.notifiedAtMs = eventTimeMs;
           concern.belowSinceMs = null;
         }
@@ -144,10 +150,12 @@ export class AlertState {
     return drafts;
   }
 
-  /** Records the id of a sent notice of a concern (not of an easing), for its acknowledgement. */
+  /** Records the id of a sent notice of a concern, for its acknowledgement (an easing starts afresh). */
   noticeSent(conditionKey: string, noticeId: string, kind: NoticeDraft['kind']): void {
     const concern = this.#concerns.get(conditionKey);
-    if (concern !== undefined && kind !== 'eased') concern.noticeId = noticeId;
+    if (concern === undefined) return;
+    if (kind === 'eased') concern.noticeIds = [];
+    else concern.noticeIds.push(noticeId);
   }
 
   /** The JSON snapshot. */
