@@ -134,7 +134,7 @@ describe('CrewNotices', () => {
     expect(summary([...notices].reverse())).toEqual([
       '1 0 PREPARE margin-outlook',
       '2 40 ACT NOW margin-outlook',
-      '3 70 ACT NOW utilization repeat',
+      '3 70 ACT NOW margin-outlook repeat',
       '4 85 CRACKING LIKELY margin-outlook',
       '5 115 CRACKING LIKELY utilization repeat',
       '6 165 NOTE eased',

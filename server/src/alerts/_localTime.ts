@@ -36,3 +36,9 @@ export function formatDuration(ms: number): string {
   const hours = Math.floor(minutes / 60);
   return rest === 0 ? `${hours} h` : `${hours} h ${rest} min`;
 }
+
+/** A figure with two decimals, without a minus sign on a rounded zero (`-0.001` -> `0.00`). */
+export function fixed2(value: number): string {
+  const text = value.toFixed(2);
+  return text === '-0.00' ? '0.00' : text;
+}

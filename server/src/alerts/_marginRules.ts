@@ -6,7 +6,7 @@ import type { RunConfig } from '../config/runConfig.ts';
 import type { RunState } from '../live/types.ts';
 import type { AlertOptions } from './alertOptions.ts';
 import type { Condition } from './types.ts';
-import { formatDuration, localClock, offsetMinOf } from './_localTime.ts';
+import { fixed2, formatDuration, localClock, offsetMinOf } from './_localTime.ts';
 
 /**
  * Margin conditions of a state (key `margin`), every level whose rule holds:
@@ -52,14 +52,14 @@ export function marginConditions(
       key: 'margin',
       kind: 'utilization',
       level: 'CRACKING LIKELY',
-      reason: `the ${stress} has reached the ${against} (utilization ${utilization.toFixed(2)})`,
+      reason: `the ${stress} has reached the ${against} (utilization ${fixed2(utilization)})`,
     });
   } else if (utilization !== null && utilization >= first - uSlack) {
     conditions.push({
       key: 'margin',
       kind: 'utilization',
       level: 'ACT NOW',
-      reason: `utilization is ${utilization.toFixed(2)}, past the first threshold ${first.toFixed(2)}`,
+      reason: `utilization is ${fixed2(utilization)}, past the first threshold ${fixed2(first)}`,
     });
   }
 
@@ -73,7 +73,10 @@ export function marginConditions(
   if (expectedMs !== null) {
     const inMs = Math.max(0, expectedMs - nowMs);
     const share = Math.round((crossing?.probability ?? 0) * 100);
-    const reason = `the outlook has the ${stress} passing the ${against} at about ${localClock(expectedMs, offset)}, in about ${formatDuration(inMs)} (${share} % of the outlook's runs)`;
+    const reason =
+      inMs <= 0
+        ? `the outlook has the ${stress} at or past the ${against} now (${share} % of the outlook's runs)`
+        : `the outlook has the ${stress} passing the ${against} at about ${localClock(expectedMs, offset)}, in about ${formatDuration(inMs)} (${share} % of the outlook's runs)`;
     if (inMs <= options.imminentMin * 60_000 + tSlackMs) {
       conditions.push({ key: 'margin', kind: 'margin-outlook', level: 'CRACKING LIKELY', reason });
     } else if (inMs <= config.leadTimeMin * 60_000 + tSlackMs) {

@@ -115,7 +115,9 @@ export class AlertState {
         const acknowledged = concern.noticeIds.some((id) => isAcknowledged(id));
         if (repeats && !acknowledged && eventTimeMs - concern.notifiedAtMs >= repeatMs) {
           concern.notifiedAtMs = eventTimeMs;
-          const current = (hold.get(key) ?? []).filter((c) => c.level === concern.level);
+          const current = [...(raise.get(key) ?? []), ...(hold.get(key) ?? [])]
+            .filter((c) => levelRank(c.level) >= levelRank(concern.level))
+            .sort((a, b) => rankOf(b) - rankOf(a));
           draft({
             level: concern.level,
             kind: current[0]?.kind ?? concern.kind,

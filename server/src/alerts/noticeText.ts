@@ -9,7 +9,7 @@ import type { RunConfig } from '../config/runConfig.ts';
 import { placedAtMs } from '../config/runConfig.ts';
 import { CAUTION_TEXT } from '../live/caution.ts';
 import type { RunState } from '../live/types.ts';
-import { formatDuration, localClock, localDateTime, offsetMinOf } from './_localTime.ts';
+import { fixed2, formatDuration, localClock, localDateTime, offsetMinOf } from './_localTime.ts';
 import type { NoticeDraft, NoticeFigures } from './types.ts';
 
 /** What a text needs besides the draft. */
@@ -110,14 +110,14 @@ function wording(
         return {
           headline: `protect the surface at once${closesIn}`,
           happening,
-          todo: `at once, ${MEASURES[phase]}. Check the surface for fine cracks and tell the site engineer. Log each measure in Meniscus`,
+          todo: `at once, ${MEASURES[phase]}. Check the surface for fine cracks and tell the site engineer. Log each measure in Meniscus and acknowledge this notice there, or it is repeated`,
         };
       }
       if (draft.level === 'ACT NOW') {
         return {
           headline: `apply curing protection${closesIn}`,
           happening,
-          todo: `now, ${MEASURES[phase]}. Log each measure in Meniscus so the outlook counts it`,
+          todo: `now, ${MEASURES[phase]}. Log each measure in Meniscus so the outlook counts it, and acknowledge this notice there, or it is repeated`,
         };
       }
       const dryingOnly = draft.kind === 'evaporation-rate' || draft.kind === 'bleed-exceeded';
@@ -190,9 +190,9 @@ function figureLine(
       phase === 'plastic'
         ? 'surface suction over air-entry suction'
         : 'surface stress over tensile strength';
-    parts.push(`utilization ${u.toFixed(2)} (${of}; 1 means cracking)`);
+    parts.push(`utilization ${fixed2(u)} (${of}; 1 means cracking)`);
   }
-  if (figures.marginMPa !== null) parts.push(`margin ${figures.marginMPa.toFixed(2)} MPa`);
+  if (figures.marginMPa !== null) parts.push(`margin ${fixed2(figures.marginMPa)} MPa`);
   if (figures.evaporationKgM2h !== null)
     parts.push(`evaporation rate ${figures.evaporationKgM2h.toFixed(2)} kg/m2/h`);
   if (figures.expectedClosingMs !== null)
