@@ -2,9 +2,9 @@
  * The twin experiment's figures (physics.md 8), shared by the live engine's offline twin test
  * (test/live/twinExperiment.test.ts) and the one through MQTT (test/integration/liveTwin.test.ts):
  * the truth's surface stress recovered from its
- * utilization and margin (fct = margin / (1 - U) where |1 - U| > 0.3, interpolated linearly in
- * time; stress = fct - margin), compared with the calibrated and the prior engine over the
- * hardening phase at the truth's sample times.
+ * utilization and margin (fct = margin / (1 - U), stress = fct - margin, see truthStressMPa),
+ * compared with the calibrated and the prior engine over the hardening phase at the truth's
+ * sample times.
  */
 import type { RunState } from '../../server/src/live/index.ts';
 import type { TruthSample } from '../live/twinReadings.ts';
@@ -20,10 +20,21 @@ export interface TwinFigures {
   coverage: number;
 }
 
-/** Truth surface stress (MPa) at each hardening sample. */
+/**
+ * Largest |1 - U| for which the truth's stress is not taken from its own figures: U and the
+ * margin are exact doubles of the truth's model, and fct = margin / (1 - U) loses about
+ * 1e-16 / |1 - U| of relative accuracy, so below 1e-6 (a loss of 1e-10) fct is interpolated.
+ */
+const ILL_CONDITIONED = 1e-6;
+
+/**
+ * Truth surface stress (MPa) at each hardening sample: stress = U fct with fct = margin / (1 - U),
+ * i.e. U margin / (1 - U), exact to rounding wherever |1 - U| > 1e-6; at the few samples where U
+ * is within 1e-6 of 1, fct is interpolated linearly in time between its neighbours.
+ */
 export function truthStressMPa(truth: readonly TruthSample[]): Map<number, number> {
   const anchors = truth
-    .filter((s) => Number.isFinite(s.marginPa) && Math.abs(1 - s.utilization) > 0.3)
+    .filter((s) => Number.isFinite(s.marginPa) && Math.abs(1 - s.utilization) > ILL_CONDITIONED)
     .map((s) => ({ timeMs: s.timeMs, fctMPa: s.marginPa / 1e6 / (1 - s.utilization) }));
   const stress = new Map<number, number>();
   for (const sample of truth) {
@@ -33,7 +44,7 @@ export function truthStressMPa(truth: readonly TruthSample[]): Map<number, numbe
     const a = anchors[next - 1] ?? b;
     if (a === undefined || b === undefined) continue;
     const fct =
-      b.timeMs === a.timeMs
+      b.timeMs === a.timeMs || b.timeMs === sample.timeMs
         ? b.fctMPa
         : a.fctMPa + ((b.fctMPa - a.fctMPa) * (sample.timeMs - a.timeMs)) / (b.timeMs - a.timeMs);
     stress.set(sample.timeMs, fct - sample.marginPa / 1e6);
