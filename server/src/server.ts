@@ -88,6 +88,7 @@ export async function startServer(
     onError: (runId, error) => log.error({ err: error, runId }, 'crew notices failed on a state'),
     outbox: { onFailure: (failure) => log.warn(failure, 'crew notice delivery failed') },
   });
+  notices.watchMeasures(lifecycle);
   const live = new LiveHost(archive, lifecycle, options.createEngine ?? createRunEngine, {
     ...(options.engineOptions === undefined ? {} : { engineOptions: options.engineOptions }),
     snapshotEveryS: config.snapshotEveryS ?? 1800,

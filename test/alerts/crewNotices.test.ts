@@ -94,6 +94,7 @@ function rig(file: string): Rig {
   });
   opened.push({ archive, notices });
   const lifecycle = new RunLifecycle(archive, () => EXAMPLE_PLACED_AT_MS);
+  notices.watchMeasures(lifecycle);
   const host = new LiveHost(archive, lifecycle, scriptedEngine, {
     snapshotEveryS: 1800,
     onAdvance: (runId, state) => notices.onState(runId, state),
@@ -147,6 +148,8 @@ describe('CrewNotices', () => {
       ]);
     }
     expect(r.logged.filter((line) => line.includes('"noticeId"'))).toHaveLength(notices.length);
+    // every text reads as sentences: no clause left empty before its full stop
+    for (const notice of notices) expect(notice.text).not.toMatch(/:\s*\./);
   });
 
   it('after a crash and restart the replay of the states since the last snapshot raises nothing twice, and the run goes on as an uninterrupted twin', async () => {
@@ -198,5 +201,41 @@ describe('CrewNotices', () => {
     await r.host.idle();
     expect(r.notices.list('run-1').filter((n) => n.repeat)).toEqual([]);
     expect(r.notices.acknowledge('run-1', 'n-run-1-99', 'x')).toBeNull();
+  });
+
+  it('notes each measure of the log once, at its start, also after a restart', async () => {
+    const r = rig('measures.sqlite');
+    createRun(r);
+    await publishMinutes(r, 0, 30);
+    await r.host.idle();
+    r.lifecycle.startMeasure('run-1', {
+      kind: 'fogging',
+      startMs: EXAMPLE_PLACED_AT_MS + 20 * MIN,
+      endMs: null,
+      loggedBy: 'J. Okafor',
+    });
+    r.lifecycle.endMeasure('run-1', 'm1', EXAMPLE_PLACED_AT_MS + 90 * MIN, 'J. Okafor');
+    const noted = r.notices.list('run-1').filter((n) => n.kind === 'measure-logged');
+    expect(noted.map((n) => [n.level, n.raisedAtMs, n.title])).toEqual([
+      [
+        'NOTE',
+        EXAMPLE_PLACED_AT_MS + 20 * MIN,
+        'NOTE: measure logged - fogging from 11:40, logged by J. Okafor',
+      ],
+    ]);
+    r.archive.close();
+    const restarted = rig('measures.sqlite');
+    restarted.lifecycle.startMeasure('run-1', {
+      kind: 'windbreak',
+      startMs: EXAMPLE_PLACED_AT_MS + 40 * MIN,
+      endMs: null,
+      loggedBy: 'J. Okafor',
+    });
+    expect(
+      restarted.notices
+        .list('run-1')
+        .filter((n) => n.kind === 'measure-logged')
+        .map((n) => n.conditionKey),
+    ).toEqual(['measure:m2', 'measure:m1']);
   });
 });

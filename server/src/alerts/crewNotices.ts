@@ -10,7 +10,8 @@
  */
 import type { RunRecord } from '../store/types.ts';
 import type { Archive } from '../store/archive.ts';
-import type { RunState } from '../live/types.ts';
+import type { MeasureEntry, RunState } from '../live/types.ts';
+import type { RunLifecycle } from '../runs/runLifecycle.ts';
 import { parseAlertOptions } from './alertOptions.ts';
 import type { AlertOptions, AlertOptionsInput } from './alertOptions.ts';
 import { AlertState } from './alertState.ts';
@@ -19,7 +20,9 @@ import { NoticeOutbox } from './noticeOutbox.ts';
 import type { NoticeOutboxOptions } from './noticeOutbox.ts';
 import { noticeRules } from './noticeRules.ts';
 import { noticeText } from './noticeText.ts';
-import type { Notice } from './types.ts';
+import type { Notice, NoticeDraft } from './types.ts';
+import { localClock, offsetMinOf } from './_localTime.ts';
+import { noticeFigures } from './noticeRules.ts';
 
 export interface CrewNoticesOptions {
   /** Rules, hysteresis and repeat options (defaults of alertOptions.ts); validated here. */
@@ -44,6 +47,8 @@ export class CrewNotices {
   readonly #listeners: ((notice: Notice) => void)[] = [];
   readonly #onError: (runId: string, error: unknown) => void;
   readonly #states = new Map<string, { run: RunRecord; alert: AlertState }>();
+  /** The last state taken per run (for the figures and phase of a measure's NOTE). */
+  readonly #lastStates = new Map<string, RunState>();
   readonly outbox: NoticeOutbox;
 
   constructor(archive: Archive, options: CrewNoticesOptions = {}) {
@@ -83,44 +88,80 @@ export class CrewNotices {
       const store = this.#archive.notices;
       const lastTaken = alert.lastEventTimeMs;
       if (lastTaken !== null && eventTimeMs <= lastTaken) return [];
+      this.#lastStates.set(runId, state);
       const findings = noticeRules(state, run.config, this.#options);
       const notices = store.transaction(() => {
         const drafts = alert.update(findings, eventTimeMs, (id) => store.isAcknowledged(id));
         const stored = drafts.map((draft) => {
-          const { title, text } = noticeText(draft, {
-            config: run.config,
-            phase: state.phase,
-            dwellMin: this.#options.dwellMin,
-          });
-          const notice = store.add(
-            {
-              runId,
-              level: draft.level,
-              kind: draft.kind,
-              conditionKey: draft.conditionKey,
-              raisedAtMs: draft.raisedAtMs,
-              title,
-              text,
-              figures: draft.figures,
-              repeat: draft.repeat,
-            },
-            this.#deliveriesFor(run),
-            this.#clock(),
-          );
+          const notice = this.#store(run, draft, state.phase);
           alert.noticeSent(draft.conditionKey, notice.id, draft.kind);
           return notice;
         });
         store.saveAlertState(runId, alert.snapshot());
         return stored;
       });
-      for (const notice of notices) this.#announce(notice);
-      if (notices.length > 0) void this.outbox.flush().catch(() => undefined);
+      this.#sent(notices);
       return notices;
     } catch (error) {
       this.#states.delete(runId);
       this.#onError(runId, error);
       return [];
     }
+  }
+
+  /**
+   * Raises a NOTE for each measure of the log that has none yet (condition key
+   * `measure:<id>`, so a measure is noted once, also across restarts), at the measure's start.
+   * Called with the whole log after each change (RunLifecycle's measuresChanged).
+   */
+  measuresChanged(runId: string, measures: readonly MeasureEntry[]): Notice[] {
+    try {
+      const hosted = this.#hosted(runId);
+      if (hosted === null) return [];
+      const { run } = hosted;
+      const store = this.#archive.notices;
+      const offset = offsetMinOf(run.config.placedAt);
+      const last = this.#lastStates.get(runId);
+      const notices = store.transaction(() =>
+        measures
+          .filter((measure) => !store.hasNoticeFor(runId, `measure:${measure.id}`))
+          .map((measure) =>
+            this.#store(
+              run,
+              {
+                level: 'NOTE',
+                kind: 'measure-logged',
+                conditionKey: `measure:${measure.id}`,
+                raisedAtMs: measure.startMs,
+                reasons: [
+                  `${measure.kind} from ${localClock(measure.startMs, offset)}` +
+                    (measure.endMs === null ? '' : ` to ${localClock(measure.endMs, offset)}`) +
+                    `, logged by ${measure.loggedBy}`,
+                ],
+                eased: null,
+                repeat: false,
+                figures:
+                  last === undefined
+                    ? noticeFigures({ ...emptyFigures, runId }, run.config)
+                    : noticeFigures(last, run.config),
+              },
+              last?.phase ?? 'plastic',
+            ),
+          ),
+      );
+      this.#sent(notices);
+      return notices;
+    } catch (error) {
+      this.#onError(runId, error);
+      return [];
+    }
+  }
+
+  /** Listens to a run lifecycle's measure-log changes (measuresChanged()). */
+  watchMeasures(lifecycle: Pick<RunLifecycle, 'listen'>): void {
+    lifecycle.listen({
+      measuresChanged: (runId, measures) => void this.measuresChanged(runId, measures),
+    });
   }
 
   /** The run's notices, newest first. */
@@ -157,6 +198,34 @@ export class CrewNotices {
     return this.outbox.close();
   }
 
+  #store(run: RunRecord, draft: NoticeDraft, phase: RunState['phase']): Notice {
+    const { title, text } = noticeText(draft, {
+      config: run.config,
+      phase,
+      dwellMin: this.#options.dwellMin,
+    });
+    return this.#archive.notices.add(
+      {
+        runId: run.id,
+        level: draft.level,
+        kind: draft.kind,
+        conditionKey: draft.conditionKey,
+        raisedAtMs: draft.raisedAtMs,
+        title,
+        text,
+        figures: draft.figures,
+        repeat: draft.repeat,
+      },
+      this.#deliveriesFor(run),
+      this.#clock(),
+    );
+  }
+
+  #sent(notices: readonly Notice[]): void {
+    for (const notice of notices) this.#announce(notice);
+    if (notices.length > 0) void this.outbox.flush().catch(() => undefined);
+  }
+
   #announce(notice: Notice): void {
     for (const listener of this.#listeners) {
       try {
@@ -186,3 +255,27 @@ export class CrewNotices {
     );
   }
 }
+
+/** A state without figures, for a measure noted before the engine's first state. */
+const emptyFigures: RunState = {
+  runId: '',
+  eventTimeMs: null,
+  phase: 'plastic',
+  surfaceStressMPa: null,
+  fctmMPa: null,
+  utilization: null,
+  marginMPa: null,
+  evaporationKgM2h: null,
+  inPlaceCompressiveStrengthMPa: null,
+  timeToTargetStrengthH: null,
+  nowBands: null,
+  bleedFilmKgM2: null,
+  bleedFilmRemainingH: null,
+  analysisCount: 0,
+  memberCount: 0,
+  outlook: null,
+  profiles: null,
+  calibration: [],
+  quality: { degraded: false, flags: [] },
+  caution: '',
+};

@@ -149,7 +149,7 @@ function wording(
       };
     case 'measure-logged':
       return {
-        headline: 'measure logged',
+        headline: `measure logged - ${draft.reasons[0] ?? ''}`,
         happening: reasons,
         todo: 'nothing; the outlook counts the measure from now on',
       };

@@ -89,6 +89,7 @@ export class NoticeStore {
       ),
       byRun: db.prepare('SELECT * FROM notices WHERE run_id = ? ORDER BY seq DESC LIMIT ?'),
       byId: db.prepare('SELECT * FROM notices WHERE run_id = ? AND id = ?'),
+      byKey: db.prepare('SELECT 1 FROM notices WHERE run_id = ? AND condition_key = ? LIMIT 1'),
       deliveriesOf: db.prepare('SELECT * FROM notice_deliveries WHERE notice_id = ? ORDER BY id'),
       acknowledge: db.prepare(
         `UPDATE notices SET acknowledged_at_ms = ?, acknowledged_by = ?
@@ -172,6 +173,11 @@ export class NoticeStore {
   acknowledge(runId: string, noticeId: string, by: string, atMs: number): Notice | null {
     this.#s.acknowledge.run(atMs, by, runId, noticeId);
     return this.get(runId, noticeId);
+  }
+
+  /** Whether the run has any notice of a condition key (e.g. `measure:m1`). */
+  hasNoticeFor(runId: string, conditionKey: string): boolean {
+    return this.#s.byKey.get(runId, conditionKey) !== undefined;
   }
 
   /** Whether a notice has been acknowledged. */
