@@ -5,8 +5,7 @@
  */
 import type { Notice } from '../contract.ts';
 import { el, replaceChildren } from '../dom.ts';
-import { formatFigure, formatPercent } from '../format.ts';
-import { formatSiteTime } from '../siteTime.ts';
+import { formatSiteDateTime, formatSiteTime } from '../siteTime.ts';
 import { levelClass } from '../words.ts';
 import { acknowledgeForm } from './acknowledgeForm.ts';
 import type { Acknowledge } from './noticeBanner.ts';
@@ -15,12 +14,12 @@ function deliveryLine(delivery: Notice['deliveries'][number], offsetMin: number)
   const when =
     delivery.lastAttemptMs === null
       ? ''
-      : `, last try ${formatSiteTime(delivery.lastAttemptMs, offsetMin)}`;
+      : `, last try ${formatSiteDateTime(delivery.lastAttemptMs, offsetMin)}`;
   const tries = `${delivery.attempts} ${delivery.attempts === 1 ? 'try' : 'tries'}`;
   const next =
     delivery.nextAttemptMs === null || delivery.nextAttemptMs === undefined
       ? ''
-      : `, next try ${formatSiteTime(delivery.nextAttemptMs, offsetMin)}`;
+      : `, next try ${formatSiteDateTime(delivery.nextAttemptMs, offsetMin)}`;
   return el(
     'li',
     { class: `delivery delivery-${delivery.status}` },
@@ -62,11 +61,11 @@ export function renderNoticeList(
             el('strong', { class: 'level-word' }, notice.level),
             ` ${formatSiteTime(notice.raisedAtMs, offsetMin)} - ${notice.title}`,
           ),
-          el('p', { class: 'notice-text' }, notice.text),
           el(
-            'p',
-            { class: 'detail' },
-            `Raised on: utilization ${formatFigure(notice.figures.utilization, 2, '')}, margin ${formatFigure(notice.figures.marginMPa, 2, 'MPa')}, evaporation ${formatFigure(notice.figures.evaporationKgM2h, 2, 'kg/m²/h')}, margin closing ${notice.figures.expectedClosingMs === null ? 'not expected' : `expected ${formatSiteTime(notice.figures.expectedClosingMs, offsetMin)}`}, probability of cracking ${formatPercent(notice.figures.probabilityCracking)}`,
+            'details',
+            {},
+            el('summary', {}, 'Whole message'),
+            el('p', { class: 'notice-text' }, notice.text),
           ),
           notice.deliveries.length === 0
             ? el('p', { class: 'detail' }, 'Not sent to anyone (no recipients for this level).')
