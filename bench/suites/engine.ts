@@ -15,6 +15,18 @@ import { type BenchFigure, type BenchSuite, ratioFigure } from '../figure.ts';
 
 const HOUR_S = 3600;
 
+/**
+ * CPU time of this process, ms (user + system, microsecond resolution). Every time in this suite
+ * is CPU time rather than wall time: on a shared machine a process waiting for a core is not
+ * working, and wall time counted that wait into the runs and the baseline unevenly (ratios of 54
+ * to 129 in three runs at a load of 4 on 2 cores, where CPU time gives steady figures).
+ * It includes the garbage collector's helper threads, which the runs barely use.
+ */
+function cpuNowMs(): number {
+  const usage = process.cpuUsage();
+  return (usage.user + usage.system) / 1000;
+}
+
 /** An invented summer day from placement at 08:00: 14 to 30 degC, 35 to 75 % RH, 1 to 6 m/s. */
 function dailyWeather(days: number): WeatherSample[] {
   const samples: WeatherSample[] = [];
@@ -61,14 +73,14 @@ function onceTimed(
   shared?: ReturnType<typeof createModel>,
 ): { ms: number; steps: number } {
   const model = shared ?? createModel(cellCount);
-  const start = performance.now();
+  const start = cpuNowMs();
   const result = simulateElement({
     model,
     weather: dailyWeather(Math.ceil(hours / 24)),
     durationS: hours * HOUR_S,
     outputIntervalS: HOUR_S,
   });
-  return { ms: performance.now() - start, steps: result.state.transport.acceptedSteps };
+  return { ms: cpuNowMs() - start, steps: result.state.transport.acceptedSteps };
 }
 
 /**
@@ -88,12 +100,12 @@ function thomasNsPerCell(cellCount: number): number {
     solveTridiagonal(lower, diagonal, upper, rightHandSide, solution, scratch);
   let best = Number.POSITIVE_INFINITY;
   for (let batch = 0; batch < 9; batch += 1) {
-    const start = performance.now();
+    const start = cpuNowMs();
     for (let i = 0; i < repetitions; i += 1) {
       rightHandSide[0] = 1 + (solution[cellCount - 1] ?? 0) * 1e-9; // keep the work observable
       solveTridiagonal(lower, diagonal, upper, rightHandSide, solution, scratch);
     }
-    best = Math.min(best, ((performance.now() - start) * 1e6) / (repetitions * cellCount));
+    best = Math.min(best, ((cpuNowMs() - start) * 1e6) / (repetitions * cellCount));
   }
   return best;
 }
@@ -132,7 +144,7 @@ function transportStepNsPerCell(cellCount: number): { ns: number; iterations: nu
   let best = Number.POSITIVE_INFINITY;
   let iterations = 0;
   for (let batch = 0; batch < 5; batch += 1) {
-    const start = performance.now();
+    const start = cpuNowMs();
     for (let i = 0; i < repetitions; i += 1) {
       iterations = implicitStep(
         model.grid,
@@ -144,7 +156,7 @@ function transportStepNsPerCell(cellCount: number): { ns: number; iterations: nu
         surface,
       ).iterations;
     }
-    best = Math.min(best, ((performance.now() - start) * 1e6) / (repetitions * cellCount));
+    best = Math.min(best, ((cpuNowMs() - start) * 1e6) / (repetitions * cellCount));
   }
   return { ns: best, iterations };
 }

@@ -14,10 +14,6 @@ import { retentionFromPoreSizes, type PoreRetentionCurve } from '../physics/rete
 import { equivalentPorePressureCurve } from '../physics/equivalentPorePressure.ts';
 import type { PoreSizeDistribution } from '../physics/retentionCurve.ts';
 import { waterSurfaceTensionNPerM } from '../physics/waterSurfaceTension.ts';
-import { waterViscosityPaS } from '../physics/waterViscosity.ts';
-import { waterDensityKgPerM3 } from '../physics/waterDensity.ts';
-import { kelvinCoefficientPa } from '../physics/kelvin.ts';
-import { saturationVapourPressurePa } from '../physics/saturationVapourPressure.ts';
 import {
   capillaryBundlePermeability,
   type CapillaryBundlePermeability,
@@ -25,6 +21,10 @@ import {
 import { GAS_CONSTANT_J_PER_MOL_K, WATER_MOLAR_MASS_KG_PER_MOL } from '../physics/units.ts';
 import type { CellHydraulics } from './hydraulics.ts';
 import { buildHydraulicTable } from './_hydraulicTable.ts';
+import {
+  waterPropertiesAt,
+  type WaterProperties as WaterPropertyValues,
+} from './_waterPropertyTable.ts';
 
 /** Options of {@link createPoreHydraulics}. */
 export interface PoreHydraulicsOptions {
@@ -202,23 +202,31 @@ export function createPoreHydraulics(options: PoreHydraulicsOptions): PoreHydrau
     inverseKelvin: number;
     vapourFactor: number;
   }
-  // The IAPWS formulations cost microseconds per call and cells share temperatures (one surface
-  // temperature, or a handful of probe temperatures per interval), so results are memoised by
-  // exact temperature; the memo is cleared when it grows past 4096 entries.
+  // Cells share temperatures (one surface temperature, or a handful of probe temperatures per
+  // interval), so results are memoised by exact temperature (the memo is cleared when it grows
+  // past 4096 entries); a new temperature reads the shared table of water properties
+  // (_waterPropertyTable.ts: IAPWS through the physics library, interpolated within 1e-7).
   const memo = new Map<number, WaterProperties>();
+  const water: WaterPropertyValues = {
+    surfaceTensionNPerM: 0,
+    viscosityPaS: 0,
+    densityKgPerM3: 0,
+    kelvinCoefficientPa: 0,
+    saturationVapourPressurePa: 0,
+  };
   const propertiesAt = (temperature: number): WaterProperties => {
     const known = memo.get(temperature);
     if (known !== undefined) return known;
-    const densityKgPerM3 = waterDensityKgPerM3(temperature);
-    const kelvinPa = kelvinCoefficientPa(temperature, densityKgPerM3);
+    waterPropertiesAt(temperature, water);
+    const kelvinPa = water.kelvinCoefficientPa;
     const properties: WaterProperties = {
-      tensionRatio: referenceTension / waterSurfaceTensionNPerM(temperature),
-      inverseViscosity: 1 / waterViscosityPaS(temperature, densityKgPerM3),
+      tensionRatio: referenceTension / water.surfaceTensionNPerM,
+      inverseViscosity: 1 / water.viscosityPaS,
       inverseKelvin: 1 / kelvinPa,
       vapourFactor: vapourOn
         ? ((airDiffusivity / options.tortuosity) *
             options.porosity *
-            saturationVapourPressurePa(temperature) *
+            water.saturationVapourPressurePa *
             WATER_MOLAR_MASS_KG_PER_MOL) /
           (GAS_CONSTANT_J_PER_MOL_K * temperature * liquidDensity * kelvinPa)
         : 0,
