@@ -68,6 +68,9 @@ export function createPlotFrame(
   const width = Math.max(260, container.clientWidth);
   const plot = new uPlot(
     {
+      // Values under the cursor on a wide screen; on a phone (no hover) the legend only names
+      // the lines, without a row of empty readouts.
+      legend: { live: width >= 700 },
       ...options,
       width,
       height: plotHeightPx(width),

@@ -99,7 +99,7 @@ export function depthProfilesPanel(): DepthProfilesPanel {
         frame?.destroy();
         frame = null;
         replaceChildren(chart, el('p', { class: 'empty' }, 'No profiles yet.'));
-        replaceChildren(probes);
+        replaceChildren(probes, el('p', { class: 'empty' }, 'No probe readings yet.'));
         return;
       }
       const data = saturationSeries(profiles);

@@ -55,7 +55,6 @@ export function historyPlot(offsetMin: number): HistoryPlot {
               { label: 'surface stress, MPa', stroke: '#b3261e', width: 2.5, spanGaps: false },
               { label: 'tensile strength, MPa', stroke: '#1f5fa8', width: 2.5, dash: [8, 4] },
             ],
-            legend: { live: true },
           },
           data,
           offsetMin,
