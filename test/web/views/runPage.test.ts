@@ -290,6 +290,7 @@ describe('crew notices on the run page', () => {
     const top = expectedTopNotice(notices);
     await expect.poll(() => page.textContent('#notice-level')).toBe(top?.level);
     expect(await page.textContent('#notice-title')).toBe(top?.title);
+    expect(await page.title()).toMatch(new RegExp(`^${top?.level ?? ''} - Ferngate parking deck`));
     const listed = await page.$$eval('#notice-list li.notice', (items) =>
       items.map((item) => item.id),
     );

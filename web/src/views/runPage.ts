@@ -9,7 +9,7 @@ import { el, panel, replaceChildren } from '../dom.ts';
 import { figurePointOf, mergeFigurePoints } from '../figureHistory.ts';
 import { connectLive } from '../liveConnection.ts';
 import { measureTimeFor } from '../measureClock.ts';
-import { upsertNotice } from '../noticeFeed.ts';
+import { currentNotice, upsertNotice } from '../noticeFeed.ts';
 import { siteOffsetMin, formatUtcOffset } from '../siteTime.ts';
 import { renderCalibrationTable } from '../panels/calibrationTable.ts';
 import { cautionBar } from '../panels/cautionBar.ts';
@@ -121,6 +121,9 @@ export async function showRunPage(root: HTMLElement, runId: string): Promise<() 
     if (state !== null) caution.update(state.caution);
   };
   const drawNotices = () => {
+    // The level leads the tab's title, so a tab in the background still says it.
+    const level = notices === null ? null : (currentNotice(notices)?.level ?? null);
+    document.title = `${level === null ? '' : `${level} - `}${run.name} - Meniscus`;
     renderNoticeBanner(banner, notices, offsetMin, acknowledge);
     renderNoticeList(noticeList, notices, offsetMin, acknowledge);
   };
