@@ -17,10 +17,10 @@ afterEach(async () => {
   for (const rig of rigs.splice(0)) await rig.close();
 });
 
-async function setUp(maxAttempts = 4) {
+async function setUp(maxAttempts = 4, hang = false) {
   const archive = Archive.open(':memory:');
   archive.createRun(parseRunConfig(exampleRunInput()), T0, 'run-1');
-  let webhookStatus = 503;
+  let webhookStatus = hang ? 0 : 503;
   const webhook = await webhookRig(() => webhookStatus);
   const log = await logRig();
   rigs.push(webhook, log);
@@ -123,5 +123,17 @@ describe('NoticeOutbox', () => {
     expect(rig.deliveries().slice(0, 2)).toEqual(['log sent 1', 'webhook failed 1 next+30s']);
     const webhook = (rig.archive.notices.list('run-1')[0] as Notice).deliveries[1];
     expect(webhook?.error).toMatch(/^POST http:\/\/127\.0\.0\.1:\d+\/hooks\/crew failed: /);
+  });
+
+  it('flush() does not hold up the others while a receiver hangs, and never sends a delivery twice at once', async () => {
+    const rig = await setUp(4, true);
+    const first = rig.outbox.flush();
+    await expect.poll(() => rig.deliveries()[0]).toBe('log sent 1');
+    expect(rig.deliveries()[1]).toBe('webhook pending 0 next+0s');
+    // a second look while the webhook hangs starts nothing new
+    expect(await Promise.race([rig.outbox.flush(), Promise.resolve('waiting')])).toBe('waiting');
+    await rig.webhook.stopReceiver?.();
+    expect(await first).toBe(3);
+    expect(rig.deliveries()[1]).toBe('webhook failed 1 next+30s');
   });
 });

@@ -2,11 +2,12 @@
  * The outbox of crew notices: works through the archive's due deliveries, sends each over its
  * channel, and records every attempt (status, attempts, last error). A failed attempt is tried
  * again after a backoff that doubles up to a cap, at most `maxAttempts` times; a channel that
- * fails never holds up the others (each delivery is sent on its own) nor the engine (sending runs
- * on the event loop after the notice is committed). Times are wall-clock (deliveries happen in
- * the real world); the clock is injected so retries are tested without waiting.
+ * fails or hangs never holds up the others (each delivery is sent on its own, never twice at
+ * once) nor the engine (sending runs on the event loop after the notice is committed). Times are
+ * wall-clock (deliveries happen in the real world); the clock is injected so retries are tested
+ * without waiting.
  */
-import type { NoticeStore } from '../store/noticeStore.ts';
+import type { DueDelivery, NoticeStore } from '../store/noticeStore.ts';
 import type { NoticeChannel } from './channels/noticeChannel.ts';
 
 export interface NoticeOutboxOptions {
@@ -42,8 +43,8 @@ export class NoticeOutbox {
   readonly #channels: Map<string, NoticeChannel>;
   readonly #options: Required<NoticeOutboxOptions>;
   #timer: NodeJS.Timeout | null = null;
-  #running: Promise<number> | null = null;
-  #again: Promise<number> | null = null;
+  /** Deliveries being sent, by id: each is sent on its own and never twice at once. */
+  readonly #inFlight = new Map<number, Promise<void>>();
   /** Counters for /api/health. */
   readonly counters = { sent: 0, failedAttempts: 0, givenUp: 0 };
 
@@ -75,23 +76,22 @@ export class NoticeOutbox {
   }
 
   /**
-   * Sends every delivery due now, each on its own; resolves with how many were attempted once
-   * all have settled. A call while a pass is running gets one more pass after it (deliveries
-   * added meanwhile are not missed); calls waiting for that pass share it.
+   * Starts every delivery due now that is not already being sent, each on its own (a slow
+   * receiver holds up nothing else); resolves with how many it started once they, and any
+   * started before, have settled.
    */
-  flush(): Promise<number> {
-    if (this.#running !== null) {
-      const next = (): Promise<number> => {
-        this.#again = null;
-        return this.flush();
-      };
-      this.#again ??= this.#running.then(next, next);
-      return this.#again;
+  async flush(): Promise<number> {
+    const due = this.#store
+      .due(this.#options.clock())
+      .filter((delivery) => !this.#inFlight.has(delivery.deliveryId));
+    for (const delivery of due) {
+      const sending = this.#deliver(delivery).finally(() =>
+        this.#inFlight.delete(delivery.deliveryId),
+      );
+      this.#inFlight.set(delivery.deliveryId, sending);
     }
-    this.#running = this.#flushDue().finally(() => {
-      this.#running = null;
-    });
-    return this.#running;
+    await Promise.all(this.#inFlight.values());
+    return due.length;
   }
 
   /** Looks for due deliveries every `pollMs` of wall time. */
@@ -114,48 +114,41 @@ export class NoticeOutbox {
   async close(): Promise<void> {
     if (this.#timer !== null) clearInterval(this.#timer);
     this.#timer = null;
-    await this.#again;
-    await this.#running;
+    await Promise.all(this.#inFlight.values());
     await Promise.allSettled([...this.#channels.values()].map((channel) => channel.close?.()));
   }
 
-  async #flushDue(): Promise<number> {
-    const due = this.#store.due(this.#options.clock());
-    await Promise.all(
-      due.map(async (delivery) => {
-        const channel = this.#channels.get(delivery.channel);
-        let error: string | null = null;
-        try {
-          if (channel === undefined)
-            throw new Error(`channel ${delivery.channel} is not configured on this server`);
-          await channel.send(delivery.notice, delivery.recipient);
-        } catch (caught) {
-          error = caught instanceof Error ? caught.message : String(caught);
-        }
-        const atMs = this.#options.clock();
-        const attempts = delivery.attempts + 1;
-        const retry =
-          error !== null && channel !== undefined && attempts < this.#options.maxAttempts;
-        this.#store.recordAttempt(delivery.deliveryId, {
-          atMs,
-          error,
-          nextAttemptMs: retry
-            ? atMs + backoffMs(attempts, this.#options.backoffS, this.#options.maxBackoffS)
-            : null,
-        });
-        if (error === null) this.counters.sent += 1;
-        else {
-          this.counters.failedAttempts += 1;
-          if (!retry) this.counters.givenUp += 1;
-          this.#options.onFailure({
-            channel: delivery.channel,
-            recipient: delivery.recipient,
-            noticeId: delivery.notice.id,
-            error,
-          });
-        }
-      }),
-    );
-    return due.length;
+  async #deliver(delivery: DueDelivery): Promise<void> {
+    const channel = this.#channels.get(delivery.channel);
+    let error: string | null = null;
+    try {
+      if (channel === undefined)
+        throw new Error(`channel ${delivery.channel} is not configured on this server`);
+      await channel.send(delivery.notice, delivery.recipient);
+    } catch (caught) {
+      error = caught instanceof Error ? caught.message : String(caught);
+    }
+    const atMs = this.#options.clock();
+    const attempts = delivery.attempts + 1;
+    const retry = error !== null && channel !== undefined && attempts < this.#options.maxAttempts;
+    this.#store.recordAttempt(delivery.deliveryId, {
+      atMs,
+      error,
+      nextAttemptMs: retry
+        ? atMs + backoffMs(attempts, this.#options.backoffS, this.#options.maxBackoffS)
+        : null,
+    });
+    if (error === null) {
+      this.counters.sent += 1;
+      return;
+    }
+    this.counters.failedAttempts += 1;
+    if (!retry) this.counters.givenUp += 1;
+    this.#options.onFailure({
+      channel: delivery.channel,
+      recipient: delivery.recipient,
+      noticeId: delivery.notice.id,
+      error,
+    });
   }
 }

@@ -74,7 +74,7 @@ export async function mqttRig(): Promise<ChannelRig> {
   };
 }
 
-/** A webhook receiver answering `status()` (200 unless a test changes it). */
+/** A webhook receiver answering `status()` (200 unless a test changes it; 0: never answers). */
 export async function webhookRig(status: () => number = () => 200): Promise<ChannelRig> {
   const bodies: string[] = [];
   const server = createServer((request, response) => {
@@ -82,6 +82,7 @@ export async function webhookRig(status: () => number = () => 200): Promise<Chan
     request.on('data', (chunk: Buffer) => (body += chunk.toString()));
     request.on('end', () => {
       const code = status();
+      if (code === 0) return; // hangs until the server is closed
       if (code < 300) bodies.push(`${request.headers['content-type'] ?? ''} ${body}`);
       response.writeHead(code).end();
     });
