@@ -29,6 +29,8 @@ export function acknowledgeForm(
     autocomplete: 'name',
     value: rememberedName(),
   });
+  // Kept as typed: a live update redraws the notices, and the new form starts from it.
+  name.addEventListener('input', () => rememberName(name.value));
   const message = el('p', { class: 'form-message', role: 'alert' });
   const button = el('button', { type: 'submit' }, 'Acknowledge');
   const form = el(

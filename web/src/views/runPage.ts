@@ -49,7 +49,6 @@ export async function showRunPage(root: HTMLElement, runId: string): Promise<() 
   let history: FigurePoint[] = [];
   let historyAvailable = true;
   let notices: Notice[] | null = [];
-  let measures: Measure[] = [];
 
   const header = el('div', { class: 'run-header', id: 'run-header' });
   const banner = el('div', { class: 'notice-banner', id: 'notice-banner', role: 'status' });
@@ -141,21 +140,26 @@ export async function showRunPage(root: HTMLElement, runId: string): Promise<() 
   };
   async function loadMeasures() {
     const answer = await getJson<{ measures: Measure[] }>(`${base}/measures`);
-    measures = answer?.measures ?? [];
-    measureLog.update(measures, offsetMin, run?.status === 'open');
+    measureLog.update(answer?.measures ?? [], offsetMin, run?.status === 'open');
   }
+  /**
+   * Loads everything over REST. A route that answers 404 (a server without it) is shown as
+   * missing; a failed request (the link is down) keeps what the page already shows.
+   */
   const loadAll = async () => {
+    const kept = <T>(request: Promise<T | null>) => request.catch((): undefined => undefined);
     const [nextState, figures, noticeAnswer] = await Promise.all([
-      getJson<RunState>(`${base}/state`).catch(() => null),
-      getJson<{ figures: FigurePoint[] }>(`${base}/figures`).catch(() => null),
-      getJson<{ notices: Notice[] }>(`${base}/notices`).catch(() => null),
+      kept(getJson<RunState>(`${base}/state`)),
+      kept(getJson<{ figures: FigurePoint[] }>(`${base}/figures`)),
+      kept(getJson<{ notices: Notice[] }>(`${base}/notices`)),
       loadMeasures().catch(() => undefined),
     ]);
-    historyAvailable = figures !== null;
-    if (figures !== null) history = mergeFigurePoints(history, figures.figures);
-    notices =
-      noticeAnswer === null ? null : [...noticeAnswer.notices].sort((a, b) => b.seq - a.seq);
-    if (nextState !== null) takeState(nextState);
+    if (figures !== undefined) historyAvailable = figures !== null;
+    if (figures) history = mergeFigurePoints(history, figures.figures);
+    if (noticeAnswer !== undefined)
+      notices =
+        noticeAnswer === null ? null : [...noticeAnswer.notices].sort((a, b) => b.seq - a.seq);
+    if (nextState) takeState(nextState);
     else drawState();
     drawNotices();
   };
