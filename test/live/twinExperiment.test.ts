@@ -109,7 +109,7 @@ describe('live engine twin experiment (level3-topping, no action)', () => {
 
   // Known gap, measured honestly: not every run meets both targets. With the model error of the
   // surface flux (the exposure multiplier's random walk, 0.1 per sqrt(h), engineOptions.ts) runs
-  // 1-4 give ratios 0.448, 0.471, 0.531, 0.374 and coverages 0.98, 0.97, 0.83, 0.83 (without the
+  // 1-4 give ratios 0.448, 0.470, 0.531, 0.374 and coverages 0.98, 0.97, 0.83, 0.83 (without the
   // walk 0.401, 0.479, 0.453, 0.353 and 0.95, 0.86, 0.81, 0.83). Over 22 seeds (offline, this
   // replay, `npx tsx test/live/twinSeeds.ts 1-22`): both targets in 17 runs (16 without the walk; 14 against 12 over seeds 5-22),
   // ratio <= 0.5 in 18 (16), coverage >= 0.8 in 19 (20); worst run 13 (ratio 0.74, coverage
