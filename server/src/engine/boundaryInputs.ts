@@ -56,13 +56,9 @@ export const MIN_CONCRETE_TEMPERATURE_C = 0;
  * Throws {@link BoundaryInputError}.
  */
 export function checkBoundaryInputs(inputs: BoundaryInputs): void {
-  const finite = (field: string, value: number): void => {
-    if (!Number.isFinite(value))
-      throw new BoundaryInputError(field, 'must be a finite number', value);
-  };
-  finite('airTemperatureK', inputs.airTemperatureK);
-  finite('windMS', inputs.windMS);
-  finite('relativeHumidity', inputs.relativeHumidity);
+  checkFinite('airTemperatureK', inputs.airTemperatureK);
+  checkFinite('windMS', inputs.windMS);
+  checkFinite('relativeHumidity', inputs.relativeHumidity);
   if (inputs.relativeHumidity < 0 || inputs.relativeHumidity > 1) {
     throw new BoundaryInputError(
       'relativeHumidity',
@@ -72,24 +68,34 @@ export function checkBoundaryInputs(inputs: BoundaryInputs): void {
   }
   if (inputs.windMS < 0)
     throw new BoundaryInputError('windMS', 'must not be negative', inputs.windMS);
-  const concrete = [
-    ['surfaceTemperatureK', inputs.surfaceTemperatureK] as const,
-    ...(inputs.probeTemperatures ?? []).map(
-      (probe, index) => [`probeTemperatures[${index}].temperatureK`, probe.temperatureK] as const,
-    ),
-  ];
-  for (const [field, temperatureK] of concrete) {
-    finite(field, temperatureK);
-    if (kelvinToCelsius(temperatureK) < MIN_CONCRETE_TEMPERATURE_C) {
-      throw new BoundaryInputError(
-        field,
-        `must be at or above ${MIN_CONCRETE_TEMPERATURE_C} degC (freezing of the pore water is not modelled; protect the element from frost) (K)`,
-        temperatureK,
-      );
-    }
+  checkConcreteTemperature('surfaceTemperatureK', inputs.surfaceTemperatureK);
+  const probes = inputs.probeTemperatures ?? [];
+  for (let index = 0; index < probes.length; index += 1) {
+    checkConcreteTemperature(
+      `probeTemperatures[${index}].temperatureK`,
+      (probes[index] as ProbeTemperature).temperatureK,
+    );
   }
   if (inputs.measuredEvaporationKgM2s !== undefined) {
-    finite('measuredEvaporationKgM2s', inputs.measuredEvaporationKgM2s);
+    checkFinite('measuredEvaporationKgM2s', inputs.measuredEvaporationKgM2s);
+  }
+}
+
+/** Throws {@link BoundaryInputError} unless `value` is a finite number. */
+function checkFinite(field: string, value: number): void {
+  if (!Number.isFinite(value))
+    throw new BoundaryInputError(field, 'must be a finite number', value);
+}
+
+/** Throws {@link BoundaryInputError} for a concrete temperature that is not finite or freezes. */
+function checkConcreteTemperature(field: string, temperatureK: number): void {
+  checkFinite(field, temperatureK);
+  if (kelvinToCelsius(temperatureK) < MIN_CONCRETE_TEMPERATURE_C) {
+    throw new BoundaryInputError(
+      field,
+      `must be at or above ${MIN_CONCRETE_TEMPERATURE_C} degC (freezing of the pore water is not modelled; protect the element from frost) (K)`,
+      temperatureK,
+    );
   }
 }
 

@@ -58,6 +58,11 @@ export interface SimulationResult {
   waterLossKgM2: number;
 }
 
+/** a + w (b - a). */
+function between(w: number, a: number, b: number): number {
+  return a + w * (b - a);
+}
+
 /** Weather at time t: linear interpolation between records, constant beyond the ends. */
 export function weatherAt(weather: readonly WeatherSample[], timeS: number): WeatherSample {
   const first = weather[0];
@@ -71,13 +76,12 @@ export function weatherAt(weather: readonly WeatherSample[], timeS: number): Wea
   const upper = weather[j] as WeatherSample;
   const lower = weather[j - 1] as WeatherSample;
   const w = (timeS - lower.timeS) / (upper.timeS - lower.timeS);
-  const mix = (a: number, b: number): number => a + w * (b - a);
   const sample: WeatherSample = {
     timeS,
-    airTemperatureK: mix(lower.airTemperatureK, upper.airTemperatureK),
-    relativeHumidity: mix(lower.relativeHumidity, upper.relativeHumidity),
-    windMS: mix(lower.windMS, upper.windMS),
-    surfaceTemperatureK: mix(lower.surfaceTemperatureK, upper.surfaceTemperatureK),
+    airTemperatureK: between(w, lower.airTemperatureK, upper.airTemperatureK),
+    relativeHumidity: between(w, lower.relativeHumidity, upper.relativeHumidity),
+    windMS: between(w, lower.windMS, upper.windMS),
+    surfaceTemperatureK: between(w, lower.surfaceTemperatureK, upper.surfaceTemperatureK),
   };
   if (
     lower.probeTemperatures !== undefined &&
@@ -86,7 +90,8 @@ export function weatherAt(weather: readonly WeatherSample[], timeS: number): Wea
   ) {
     sample.probeTemperatures = lower.probeTemperatures.map((probe, index) => ({
       depthM: probe.depthM,
-      temperatureK: mix(
+      temperatureK: between(
+        w,
         probe.temperatureK,
         (upper.probeTemperatures?.[index] ?? probe).temperatureK,
       ),
@@ -98,7 +103,8 @@ export function weatherAt(weather: readonly WeatherSample[], timeS: number): Wea
     lower.measuredEvaporationKgM2s !== undefined &&
     upper.measuredEvaporationKgM2s !== undefined
   ) {
-    sample.measuredEvaporationKgM2s = mix(
+    sample.measuredEvaporationKgM2s = between(
+      w,
       lower.measuredEvaporationKgM2s,
       upper.measuredEvaporationKgM2s,
     );

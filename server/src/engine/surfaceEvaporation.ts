@@ -62,25 +62,45 @@ export function surfaceEvaporation(
   };
   const wet = evaporationFluxKgM2s(weather, { surfacePoreHumidity: 1, allowCondensation: true });
   const dry = evaporationFluxKgM2s(weather, { surfacePoreHumidity: 0, allowCondensation: true });
-  const measured = inputs.measuredEvaporationKgM2s;
-  const multiplier = (options.exposureMultiplier ?? 1) * effective.fluxMultiplier;
-  const signedRateKgM2s = (surfaceHumidity: number): number => {
-    if (effective.heldSaturated) return 0;
-    let rate: number;
-    if (measured === undefined) rate = dry + surfaceHumidity * (wet - dry);
-    else if (wet > 0) rate = (measured * (dry + surfaceHumidity * (wet - dry))) / wet;
-    else rate = measured; // the estimate sees no drive: trust the measurement as it is
-    return rate * multiplier;
-  };
-  const rateKgM2s = (surfaceHumidity: number): number => {
-    const rate = signedRateKgM2s(surfaceHumidity);
-    return allowCondensation ? rate : Math.max(0, rate);
-  };
-  return {
-    heldSaturated: effective.heldSaturated,
-    potentialKgM2s: rateKgM2s(1),
-    rateKgM2s,
-    signedRateKgM2s,
+  return new LinearSurfaceEvaporation(
+    effective.heldSaturated,
+    dry,
+    wet,
+    inputs.measuredEvaporationKgM2s,
+    (options.exposureMultiplier ?? 1) * effective.fluxMultiplier,
     allowCondensation,
-  };
+  );
+}
+
+/**
+ * E(h) of one interval, linear in h between the rates at h = 0 and h = 1 (a class, so that an
+ * interval builds no closures: the model builds one per interval of event time).
+ */
+class LinearSurfaceEvaporation implements SurfaceEvaporation {
+  readonly potentialKgM2s: number;
+  constructor(
+    readonly heldSaturated: boolean,
+    private readonly dryKgM2s: number,
+    private readonly wetKgM2s: number,
+    private readonly measuredKgM2s: number | undefined,
+    private readonly multiplier: number,
+    readonly allowCondensation: boolean,
+  ) {
+    this.potentialKgM2s = this.rateKgM2s(1);
+  }
+
+  signedRateKgM2s(surfaceHumidity: number): number {
+    if (this.heldSaturated) return 0;
+    const estimate = this.dryKgM2s + surfaceHumidity * (this.wetKgM2s - this.dryKgM2s);
+    let rate: number;
+    if (this.measuredKgM2s === undefined) rate = estimate;
+    else if (this.wetKgM2s > 0) rate = (this.measuredKgM2s * estimate) / this.wetKgM2s;
+    else rate = this.measuredKgM2s; // the estimate sees no drive: trust the measurement as it is
+    return rate * this.multiplier;
+  }
+
+  rateKgM2s(surfaceHumidity: number): number {
+    const rate = this.signedRateKgM2s(surfaceHumidity);
+    return this.allowCondensation ? rate : Math.max(0, rate);
+  }
 }
