@@ -133,7 +133,18 @@ describe('deploy/mosquitto configuration', () => {
     feed.end(true);
   });
 
+  it('lets the server publish crew notices of a site, which it reads back', async () => {
+    const server = await connect(users.server);
+    const received: string[] = [];
+    server.on('message', (topic) => received.push(topic));
+    await server.subscribeAsync('meniscus/#', { qos: 1 });
+    expect(await publishReasonCode(server, 'meniscus/deck-b/notices')).toBe(0);
+    await expect.poll(() => received).toEqual(['meniscus/deck-b/notices']);
+    server.end(true);
+  });
+
   it.each([
+    ['a device publishing crew notices', users.probe, 'meniscus/deck-b/notices'],
     ['a device publishing a forecast', users.probe, 'meniscus/deck-b/forecast'],
     ['the forecast feed publishing readings', users.forecast, 'meniscus/deck-b/probe-a/data'],
     ['another device', users.probe, 'meniscus/deck-b/probe-b/data'],
