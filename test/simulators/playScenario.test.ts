@@ -83,8 +83,10 @@ describe('playScenario() against the real ingest (embedded broker, archive on di
       const stretches = detectStuck(series, { windowS: 1800 });
       if (probe.device === 'probe-c7' && probe.sensor === 't-20') {
         expect(stretches).toHaveLength(1);
-        // its first stuck value is the last one it sent before 14:30 (within one interval and drift)
-        expect(Math.abs((stretches[0]?.fromMs ?? 0) - stuckFromMs)).toBeLessThan(2 * 60_000 + 5000);
+        // Its first stuck value is the last one it sent before 14:30, or earlier when the readings
+        // just before were already equal at the sensor's 0.1 K resolution (20 mm follows the
+        // surface within minutes, near the afternoon peak): within five intervals and drift.
+        expect(Math.abs((stretches[0]?.fromMs ?? 0) - stuckFromMs)).toBeLessThan(5 * 60_000 + 5000);
       } else {
         expect(stretches, `${probe.device}/${probe.sensor}`).toEqual([]);
       }
