@@ -124,7 +124,13 @@ describe('the demo (server, run over HTTP, scenario on the engine truth)', () =>
     expect(response.status).toBe(200);
     const body = (await response.json()) as {
       runId: string;
-      notices: { level: string; raisedAtMs: number; title: string; text: string }[];
+      notices: {
+        level: string;
+        raisedAtMs: number;
+        title: string;
+        text: string;
+        deliveries: { channel: string; recipient: string; status: string }[];
+      }[];
     };
     expect(body.runId).toBe(demo.runId);
     const warnings = body.notices.filter(
@@ -138,6 +144,15 @@ describe('the demo (server, run over HTTP, scenario on the engine truth)', () =>
       `  ${scenarioLocalTime(first?.raisedAtMs ?? 0, demo.utcOffsetMin)}  notice  ${first?.title}`,
     );
     expect(first?.text).toContain('Estimates only');
+    // sent on the log and through the server's embedded broker to meniscus/<site>/notices
+    expect(first?.deliveries).toEqual([
+      expect.objectContaining({ channel: 'log', status: 'sent' }),
+      expect.objectContaining({
+        channel: 'mqtt',
+        recipient: `meniscus/${runConfig.site}/notices`,
+        status: 'sent',
+      }),
+    ]);
   });
 });
 
