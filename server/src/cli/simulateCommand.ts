@@ -208,7 +208,7 @@ async function run(flags: FlagReader, context: CommandContext) {
   notes.push(
     'plastic phase (before final set): utilization is surface suction over the critical suction; hardening phase: surface stress over tensile strength.',
     stressReference === 'final-set'
-      ? 'drying stress counted from the stress-free state at the surface final set (zero before it).'
+      ? 'drying stress counted from the stress-free state at the element final set, when its bulk sets (zero before it).'
       : 'drying stress counted from the saturated placement (includes the suction built before final set).',
   );
   const forecast = result.series.at(-1)?.strengthForecast;
@@ -342,7 +342,7 @@ export const simulateCommand: CommandDefinition = {
     {
       flags: '--stress-reference <ref>',
       description:
-        'final-set (default: stress counted from the surface final set) or placement (from the saturated placement)',
+        'final-set (default: stress counted from the element final set, when its bulk sets) or placement (from the saturated placement)',
     },
     { flags: '--air-temp <C>', description: 'constant air temperature, degC (-20 to 60)' },
     {
