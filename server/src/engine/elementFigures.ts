@@ -39,6 +39,12 @@ import {
   type StrengthForecast,
 } from './strengthForecast.ts';
 
+// Local copies of the bindings the per-cell loop reads: under tsx every read of an imported
+// binding is a getter call, which cost more than the arithmetic of the loop.
+const DAY_S = SECONDS_PER_DAY;
+const strengthAt = inPlaceStrength;
+const hydrationAt = schindlerFolliardDegreeOfHydration;
+
 /** Depth profiles at one instant, index 0 at the exposed surface. SI units. */
 export interface ElementProfiles {
   depthM: number[];
@@ -113,41 +119,46 @@ export function evaluateElement(
   model.applyState(state);
   const { grid, hydraulics, material, config } = model;
   const n = grid.cellCount;
-  const profiles: ElementProfiles = {
-    depthM: Array.from(grid.centresM),
-    saturation: [],
-    liquidPressurePa: [],
-    relativeHumidity: [],
-    equivalentPorePressurePa: [],
-    stressPa: [],
-    tensileStrengthPa: [],
-    compressiveStrengthPa: [],
-    equivalentAgeS: Array.from(state.equivalentAgeS),
-    degreeOfHydration: [],
-    temperatureK: Array.from(state.temperatureK),
+  // Arrays of their final length written by index (pushing grew each of them several times).
+  const column = (): number[] => new Array<number>(n);
+  const copy = (values: Float64Array): number[] => {
+    const out = column(); // a loop: Array.from walks a typed array through its iterator
+    for (let i = 0; i < n; i += 1) out[i] = values[i] as number;
+    return out;
   };
+  const profiles: ElementProfiles = {
+    depthM: copy(grid.centresM),
+    saturation: column(),
+    liquidPressurePa: column(),
+    relativeHumidity: column(),
+    equivalentPorePressurePa: column(),
+    stressPa: [],
+    tensileStrengthPa: column(),
+    compressiveStrengthPa: column(),
+    equivalentAgeS: copy(state.equivalentAgeS),
+    degreeOfHydration: column(),
+    temperatureK: copy(state.temperatureK),
+  };
+  const mix = material.mix;
+  const fixedTensilePa = material.fixedStrength?.tensileStrengthPa ?? Number.NaN;
+  const pressures = state.transport.pressurePa;
+  const ages = state.equivalentAgeS;
   for (let i = 0; i < n; i += 1) {
-    const pressure = state.transport.pressurePa[i] as number;
-    profiles.liquidPressurePa.push(pressure);
-    profiles.saturation.push(hydraulics.saturationAt(i, pressure));
-    profiles.relativeHumidity.push(hydraulics.relativeHumidity(i, Math.min(0, pressure)));
-    profiles.equivalentPorePressurePa.push(hydraulics.equivalentPorePressurePa(i, pressure));
-    const ageS = state.equivalentAgeS[i] as number;
-    if (material.mix !== undefined) {
-      const strength = inPlaceStrength(
-        ageS / SECONDS_PER_DAY,
-        material.mix.strength,
-        material.mix.setting,
-      );
-      profiles.tensileStrengthPa.push(strength.tensileStrengthMPa * 1e6);
-      profiles.compressiveStrengthPa.push(strength.compressiveStrengthMPa * 1e6);
-      profiles.degreeOfHydration.push(
-        schindlerFolliardDegreeOfHydration(ageS, material.mix.hydration),
-      );
+    const pressure = pressures[i] as number;
+    profiles.liquidPressurePa[i] = pressure;
+    profiles.saturation[i] = hydraulics.saturationAt(i, pressure);
+    profiles.relativeHumidity[i] = hydraulics.relativeHumidity(i, Math.min(0, pressure));
+    profiles.equivalentPorePressurePa[i] = hydraulics.equivalentPorePressurePa(i, pressure);
+    if (mix !== undefined) {
+      const ageS = ages[i] as number;
+      const strength = strengthAt(ageS / DAY_S, mix.strength, mix.setting);
+      profiles.tensileStrengthPa[i] = strength.tensileStrengthMPa * 1e6;
+      profiles.compressiveStrengthPa[i] = strength.compressiveStrengthMPa * 1e6;
+      profiles.degreeOfHydration[i] = hydrationAt(ageS, mix.hydration);
     } else {
-      profiles.tensileStrengthPa.push(material.fixedStrength?.tensileStrengthPa ?? Number.NaN);
-      profiles.compressiveStrengthPa.push(Number.NaN);
-      profiles.degreeOfHydration.push(Number.NaN);
+      profiles.tensileStrengthPa[i] = fixedTensilePa;
+      profiles.compressiveStrengthPa[i] = Number.NaN;
+      profiles.degreeOfHydration[i] = Number.NaN;
     }
   }
   const requestedMode = config.stressMode ?? 'flat';
@@ -160,7 +171,7 @@ export function evaluateElement(
     poissonRatio: material.poissonRatio,
     relaxationFactor: material.relaxationFactor,
   };
-  const stressProfile = { depthsM: profiles.depthM, weightsM: Array.from(grid.widthsM) };
+  const stressProfile = { depthsM: profiles.depthM, weightsM: copy(grid.widthsM) };
   const reference = config.stressReference ?? DEFAULT_STRESS_REFERENCE;
   // The element sets with its bulk (the setting depth, stressReference.ts), not its surface skin.
   const settingAgeS = state.equivalentAgeS[model.settingCell] as number;
