@@ -5,10 +5,14 @@
  * with the given engine options on top of the test's, and prints per run the RMSE ratio, the
  * 90 % band's coverage, both RMSEs, the prior band's width as an sd (p95 - p05) / 3.29 beside the
  * prior's error, and the calibrated multipliers; then how many runs meet each target. The prior
- * is the test's: no assimilation, no exposure walk. About 2.5 s per run on one core.
+ * is the test's: no assimilation, no exposure walk. First it prints the model's floor: the same
+ * engine and readings with the truth's hidden parameters in every member (no assimilation, no
+ * walk), i.e. what the calibration could reach if it found them exactly. About 2.5 s per run on
+ * one core.
  */
 import { createRunEngine } from '../../server/src/live/index.ts';
-import type { RunEngineOptions, RunState } from '../../server/src/live/index.ts';
+import type { RunEngine, RunEngineOptions, RunState } from '../../server/src/live/index.ts';
+import { PARAMETER_INDEX } from '../../server/src/live/memberModel.ts';
 import { loadScenarioFolder } from '../../simulators/src/scenarioFolder.ts';
 import { truthStressMPa, twinFigures } from '../helpers/twinMetrics.ts';
 import { playTwin } from './twinReadings.ts';
@@ -16,9 +20,51 @@ import type { TwinRun } from './twinReadings.ts';
 
 const folder = loadScenarioFolder('level3-topping');
 
-/** Runs the engine over the twin, 5 minutes of readings at a time; states by event time. */
-function replay(twin: TwinRun, runId: string, options: RunEngineOptions): Map<number, RunState> {
-  const engine = createRunEngine(runId, folder.runConfig, options);
+/** Carried state of a member as the engine's snapshot writes it (the fields changed here). */
+interface CarriedJson {
+  parameters: { permeabilityMultiplier: number; exposureMultiplier: number };
+  bleedFilmKgM2: number;
+}
+
+/**
+ * The engine restarted from its own snapshot with the truth's hidden parameters in every member
+ * (permeability and exposure multipliers, and the bleed film the members start with); null
+ * while the engine has no ensemble yet.
+ */
+function withHiddenParameters(engine: RunEngine, runId: string, options: RunEngineOptions) {
+  const snapshot = engine.snapshot();
+  const body = snapshot.body as {
+    ensemble: {
+      members: { state: (number | null)[]; parameters: number[]; carried: CarriedJson }[];
+    } | null;
+  };
+  if (body.ensemble === null) return null;
+  const truth = folder.scenario.truth;
+  for (const member of body.ensemble.members) {
+    member.parameters[PARAMETER_INDEX.permeabilityMultiplier] = truth.permeabilityMultiplier;
+    member.parameters[PARAMETER_INDEX.exposureMultiplier] = truth.exposureMultiplier;
+    member.parameters[PARAMETER_INDEX.initialBleedFilmKgM2] = truth.initialBleedFilmKgM2;
+    member.carried.parameters.permeabilityMultiplier = truth.permeabilityMultiplier;
+    member.carried.parameters.exposureMultiplier = truth.exposureMultiplier;
+    member.carried.bleedFilmKgM2 = truth.initialBleedFilmKgM2;
+    member.state[member.state.length - 1] = truth.initialBleedFilmKgM2; // the film's entry
+  }
+  return createRunEngine(runId, folder.runConfig, options, snapshot);
+}
+
+/**
+ * Runs the engine over the twin, 5 minutes of readings at a time; states by event time. With
+ * `hidden`, every member takes the truth's hidden parameters after the first cycle that made
+ * the ensemble (its first 5 minutes; the bleed film is set to the hidden one then).
+ */
+function replay(
+  twin: TwinRun,
+  runId: string,
+  options: RunEngineOptions,
+  hidden = false,
+): Map<number, RunState> {
+  let engine = createRunEngine(runId, folder.runConfig, options);
+  let patched = !hidden;
   engine.setMeasures(twin.measures);
   const states = new Map<number, RunState>();
   const batches = new Map<number, TwinRun['readings']>();
@@ -29,6 +75,13 @@ function replay(twin: TwinRun, runId: string, options: RunEngineOptions): Map<nu
   for (const key of [...batches.keys()].sort((a, b) => a - b)) {
     engine.addReadings(batches.get(key) ?? []);
     const state = engine.advance();
+    if (!patched) {
+      const restarted = withHiddenParameters(engine, runId, options);
+      if (restarted !== null) {
+        engine = restarted;
+        patched = true;
+      }
+    }
     if (state?.eventTimeMs != null) states.set(state.eventTimeMs, state);
   }
   return states;
@@ -56,6 +109,12 @@ const options: RunEngineOptions = { outlookEveryAnalyses: 1000, ...extra };
 const prior: RunEngineOptions = { ...options, assimilation: false, exposureRandomWalkPerSqrtH: 0 };
 const twin = playTwin(folder.scenario, { logName: 'no-action' });
 const truthTimes = [...truthStressMPa(twin.truth).keys()];
+const floorStates = replay(twin, 'ferngate-l3-twin-hidden', { ...prior, memberCount: 4 }, true);
+const floor = twinFigures(twin.truth, floorStates, floorStates);
+console.info(
+  `floor: the truth's hidden parameters in every member, no assimilation: stress RMSE ` +
+    `${floor.calibratedRmseMPa.toFixed(4)} MPa over ${floor.count} samples`,
+);
 let ratioMet = 0;
 let coverageMet = 0;
 let bothMet = 0;
