@@ -195,18 +195,12 @@ export function createPoreHydraulics(options: PoreHydraulicsOptions): PoreHydrau
     }
   };
   const computedForK = new Float64Array(n).fill(Number.NaN);
-  /** Water properties at one temperature (IAPWS releases through the physics library). */
-  interface WaterProperties {
-    tensionRatio: number;
-    inverseViscosity: number;
-    inverseKelvin: number;
-    vapourFactor: number;
-  }
-  // Cells share temperatures (one surface temperature, or a handful of probe temperatures per
-  // interval), so results are memoised by exact temperature (the memo is cleared when it grows
-  // past 4096 entries); a new temperature reads the shared table of water properties
-  // (_waterPropertyTable.ts: IAPWS through the physics library, interpolated within 1e-7).
-  const memo = new Map<number, WaterProperties>();
+  // A new temperature reads the shared table of water properties (_waterPropertyTable.ts: IAPWS
+  // through the physics library, interpolated within 1e-7) straight into the cell's
+  // coefficients; a cell at its neighbour's temperature copies the neighbour's (cells share one
+  // surface temperature when no probe profile is given). No memo of objects per temperature: the
+  // weather gives a new temperature every interval, so a memo missed and its objects fed the
+  // garbage collector.
   const water: WaterPropertyValues = {
     surfaceTensionNPerM: 0,
     viscosityPaS: 0,
@@ -214,37 +208,30 @@ export function createPoreHydraulics(options: PoreHydraulicsOptions): PoreHydrau
     kelvinCoefficientPa: 0,
     saturationVapourPressurePa: 0,
   };
-  const propertiesAt = (temperature: number): WaterProperties => {
-    const known = memo.get(temperature);
-    if (known !== undefined) return known;
-    waterPropertiesAt(temperature, water);
-    const kelvinPa = water.kelvinCoefficientPa;
-    const properties: WaterProperties = {
-      tensionRatio: referenceTension / water.surfaceTensionNPerM,
-      inverseViscosity: 1 / water.viscosityPaS,
-      inverseKelvin: 1 / kelvinPa,
-      vapourFactor: vapourOn
-        ? ((airDiffusivity / options.tortuosity) *
-            options.porosity *
-            water.saturationVapourPressurePa *
-            WATER_MOLAR_MASS_KG_PER_MOL) /
-          (GAS_CONSTANT_J_PER_MOL_K * temperature * liquidDensity * kelvinPa)
-        : 0,
-    };
-    if (memo.size > 4096) memo.clear();
-    memo.set(temperature, properties);
-    return properties;
-  };
   const refreshTemperature = (): void => {
     for (let i = 0; i < n; i += 1) {
       const temperature = temperatureK[i] as number;
       if (temperature === computedForK[i]) continue;
       computedForK[i] = temperature;
-      const properties = propertiesAt(temperature);
-      tensionRatio[i] = properties.tensionRatio;
-      inverseViscosity[i] = properties.inverseViscosity;
-      inverseKelvin[i] = properties.inverseKelvin;
-      vapourFactor[i] = properties.vapourFactor;
+      if (i > 0 && temperature === computedForK[i - 1]) {
+        tensionRatio[i] = tensionRatio[i - 1] as number;
+        inverseViscosity[i] = inverseViscosity[i - 1] as number;
+        inverseKelvin[i] = inverseKelvin[i - 1] as number;
+        vapourFactor[i] = vapourFactor[i - 1] as number;
+        continue;
+      }
+      waterPropertiesAt(temperature, water);
+      const kelvinPa = water.kelvinCoefficientPa;
+      tensionRatio[i] = referenceTension / water.surfaceTensionNPerM;
+      inverseViscosity[i] = 1 / water.viscosityPaS;
+      inverseKelvin[i] = 1 / kelvinPa;
+      vapourFactor[i] = vapourOn
+        ? ((airDiffusivity / options.tortuosity) *
+            options.porosity *
+            water.saturationVapourPressurePa *
+            WATER_MOLAR_MASS_KG_PER_MOL) /
+          (GAS_CONSTANT_J_PER_MOL_K * temperature * liquidDensity * kelvinPa)
+        : 0;
     }
     refreshScale();
   };
