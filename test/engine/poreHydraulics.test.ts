@@ -81,6 +81,47 @@ describe('createPoreHydraulics()', () => {
     );
   });
 
+  it.each([
+    { name: 'each cell its own temperature', temperaturesK: [283.15, 303.15, 293.15] },
+    { name: 'a run of cells at one temperature', temperaturesK: [303.15, 303.15, 303.15] },
+    { name: 'a neighbour shared after a change', temperaturesK: [298.15, 298.15, 285.15] },
+  ])(
+    'refreshTemperature() gives every cell the coefficients of its own temperature ($name)',
+    ({ temperaturesK }) => {
+      // The refresh copies a neighbour's coefficients when it shares the temperature: each cell
+      // must end up with what a model at that one temperature gives it (conductivity including
+      // vapour, Kelvin coefficient, pressure scale), after an earlier, different refresh.
+      const hydraulics = make();
+      hydraulics.temperatureK.set([290.15, 290.15, 300.15]);
+      hydraulics.refreshTemperature();
+      hydraulics.temperatureK.set(temperaturesK);
+      hydraulics.refreshTemperature();
+      const pressuresPa = new Float64Array([-3e6, -3e6, -3e6]);
+      const outputs = () => Array.from({ length: 4 }, () => new Float64Array(3));
+      const [water, capacity, conductivity, slope] = outputs() as [
+        Float64Array,
+        Float64Array,
+        Float64Array,
+        Float64Array,
+      ];
+      hydraulics.evaluate(pressuresPa, water, capacity, conductivity, undefined, slope);
+      temperaturesK.forEach((temperatureK, cell) => {
+        const alone = make();
+        alone.temperatureK.fill(temperatureK);
+        alone.refreshTemperature();
+        const [w, c, k, s] = outputs() as [Float64Array, Float64Array, Float64Array, Float64Array];
+        alone.evaluate(pressuresPa, w, c, k, undefined, s);
+        expect(conductivity[cell]).toBe(k[cell]);
+        expect(slope[cell]).toBe(s[cell]);
+        expect(water[cell]).toBe(w[cell]);
+        expect(hydraulics.inverseKelvinCoefficientPerPa(cell)).toBe(
+          alone.inverseKelvinCoefficientPerPa(cell),
+        );
+        expect(hydraulics.pressureScale[cell]).toBe(alone.pressureScale[cell]);
+      });
+    },
+  );
+
   it('refined pores (diameters halved) need twice the suction for the same saturation', () => {
     const hydraulics = make();
     hydraulics.diameterScale[2] = 0.5;
