@@ -52,7 +52,9 @@ export async function demoMain(argv: readonly string[], env: NodeJS.ProcessEnv):
   }>();
   let config;
   try {
-    config = serverConfigFromEnv(env);
+    // The demo prints its own lines (readings, notices, the truth beside the server); the
+    // server's JSON log would drown them, so it shows errors only unless the user asks for more.
+    config = serverConfigFromEnv({ MENISCUS_LOG_LEVEL: 'error', ...env });
   } catch (error) {
     process.stderr.write(`${(error as Error).message}\n`);
     return 2;
