@@ -74,4 +74,22 @@ describe('assimilate() inflation over repeated analyses of a static parameter', 
     expect(Math.abs(final - sd * sd)).toBeLessThan(1e-9 * sd * sd);
     expect(final).toBeGreaterThan(1.5 / cycles);
   });
+
+  it('with relaxation to prior spread except the parameter collapses like R / K (closed form)', () => {
+    const { initial, final } = cycle(
+      { kind: 'relaxation-to-prior-spread', alpha: 0.5, exceptParameters: ['theta'] },
+      cycles,
+    );
+    const expected = 1 / (1 / initial + cycles / 1);
+    expect(Math.abs(final - expected)).toBeLessThan(1e-9 * expected);
+  });
+
+  it('relaxation to prior spread excepting another parameter still relaxes this one', () => {
+    const relaxed = cycle({ kind: 'relaxation-to-prior-spread', alpha: 0.5 }, cycles);
+    const other = cycle(
+      { kind: 'relaxation-to-prior-spread', alpha: 0.5, exceptParameters: ['other'] },
+      cycles,
+    );
+    expect(other.final).toBe(relaxed.final);
+  });
 });

@@ -107,18 +107,20 @@ describe('live engine twin experiment (level3-topping, no action)', () => {
     expect(mean).toBeGreaterThanOrEqual(0.8);
   });
 
-  // Known gap, measured honestly: not every run meets both targets. With the simulators' thermal
-  // fix (b890b20: a depth follows the surface with d^2/alpha, 36 s at 5 mm, instead of trailing
-  // it by some 35 min) and the exposure walk (0.1 per sqrt(h), engineOptions.ts), runs 1-4 give
-  // ratios 0.388, 0.471, 0.514, 0.337 and coverages 0.98, 0.98, 0.83, 0.83. Over 22 seeds
-  // (offline, this replay, `npx tsx test/live/twinSeeds.ts 1-22`): both targets in 17 runs,
-  // ratio <= 0.5 in 17, coverage >= 0.8 in 21; four misses are near the line (runs 3, 9, 10, 20:
-  // 0.514, 0.501, 0.504, 0.509), run 13 is not (ratio 0.800, coverage 0.71). Without the walk:
-  // 18 of 22 (misses 9, 10, 13, 20); observation error 0.5 %RH: worse (10 misses in 15 runs,
-  // run 13 ratio 1.27), stopped there.
-  // The model is no longer the limit: with the truth's hidden parameters in every member and the
+  // Every run of the four meets both targets, but not every seed: a known gap for the method,
+  // measured honestly. With the simulators' thermal fix (b890b20: a depth follows the surface with
+  // d^2/alpha, 36 s at 5 mm, instead of trailing it by some 35 min) and the probes' RH biases
+  // kept out of RTPS (engineOptions.ts), runs 1-4 give ratios 0.339, 0.439, 0.413, 0.323 and
+  // coverages 0.98, 0.98, 0.83, 0.83. Over 22 seeds (offline, this replay, `npx tsx
+  // test/live/twinSeeds.ts 1-22`): both targets in 20 runs; run 10 misses the ratio by a hair
+  // (0.504), run 13 by far (ratio 1.08, coverage 0.66). With the biases relaxed like the other
+  // parameters (`rtpsOnBiases: true`, the engine before this change): 17 of 22 (ratios 0.388,
+  // 0.471, 0.514, 0.337 in runs 1-4; misses 3, 9, 10, 20 near the line, 13 at 0.80 and 0.71);
+  // that and no exposure walk: 18 of 22; observation error 0.5 %RH: worse (10 misses in 15
+  // runs), stopped there.
+  // The model is not the limit: with the truth's hidden parameters in every member and the
   // same readings the engine misses the truth's stress by 0.0069 MPa RMSE (the floor twinSeeds.ts
-  // prints; 0.024 MPa before the thermal fix), the calibrated runs by 0.019 to 0.049 MPa. Set
+  // prints; 0.024 MPa before the thermal fix), the calibrated runs by 0.014 to 0.066 MPa. Set
   // and early hardening are not the cause either: the 60-cell model beside the 120-cell truth on
   // the truth's own inputs and parameters sets at 197 against 198 min and stays within 0.001 MPa
   // of its stress for 10 h; on the three probe temperatures alone it sets at 196 min and runs
@@ -127,21 +129,20 @@ describe('live engine twin experiment (level3-topping, no action)', () => {
   // thermal field's).
   // What limits the calibration: the probes see little of the drying. By the evening the 5 mm
   // probe's RH has fallen from 100 to about 98.5 %, the 35 mm one to about 99.0 %, against an
-  // observation error of 1 %RH and bias posteriors still 0.2-0.3 %RH wide at set (RTPS keeps
-  // them from narrowing; run 13: rh-05 0.68 +- 0.29 against the hidden 0.8). The filter trades
-  // the biases against the drying, the permeability stays unidentified (90 % intervals about 0.3
-  // to 9), and the exposure multiplier drifts up through the dry-wind afternoon (means 1.3-1.8
-  // against the hidden 1.1; run 13's median stress 0.06 MPa above the truth at 400 min). From
-  // the evening shower (445 to 470 min after placement) those members dry again faster than the
-  // truth while the prior follows it: run 3's band misses are the first sample after set and
-  // 475-520 min, run 13's the first sample, 220-230 min (an analysis just after set put its
+  // observation error of 1 %RH; with the biases relaxed their posteriors were still 0.2-0.3 %RH
+  // wide at set (run 13: rh-05 0.68 +- 0.29 against the hidden 0.8) and the filter traded them
+  // against the drying. The permeability stays unidentified (90 % intervals about 0.3 to 10)
+  // and the exposure multiplier drifts up through the dry-wind afternoon (means 1.2-1.8 against
+  // the hidden 1.1). From the evening shower (445 to 470 min after placement) such members dry
+  // again faster than the truth while the prior follows it: band misses of run 13 (biases
+  // relaxed) are the first sample after set, 220-230 min (an analysis just after set put its
   // median 0.016 MPa above the truth) and 450-520 min.
   // Tried before the thermal fix without a consistent gain: observation error 0.7 and 1.5 %RH,
   // RTPS 0.6 and 0.9, multiplicative inflation 1.02, a 15-min cadence, depth localisation
   // (15 mm), parameters-only updates, walks of 0.05 to 0.3 per sqrt(h), the plastic-phase switch
   // on the surface's set, parameters updated before set too, 48 and 64 members, and an offline
   // ES-MDA sketch over fixed 30 and 60 min windows (ratios 0.58 to 0.93 in runs 1-4).
-  it.fails('every run meets both targets (ratio <= 0.5, coverage >= 0.8)', () => {
+  it('every run meets both targets (ratio <= 0.5, coverage >= 0.8)', () => {
     for (const result of results) {
       expect(result.rmseRatio).toBeLessThanOrEqual(0.5);
       expect(result.coverage).toBeGreaterThanOrEqual(0.8);

@@ -202,6 +202,16 @@ export function assimilate<C>(
     serialEnsrfAnalysis(analysis, means, predicted, innovations, errorSd, localisation);
   }
   if (forecastSpreads !== null && inflation.kind === 'relaxation-to-prior-spread') {
+    const except = new Set(inflation.exceptParameters ?? []);
+    if (except.size > 0) {
+      // Excepted rows relax towards their own analysis spread, i.e. keep it.
+      const firstParameterRow = analysis.rowCount - specs.length;
+      const analysisSpreads = rowSpreads(analysis);
+      specs.forEach((spec, j) => {
+        const row = firstParameterRow + j;
+        if (except.has(spec.name)) forecastSpreads[row] = analysisSpreads[row] as number;
+      });
+    }
     relaxToPriorSpread(analysis, forecastSpreads, inflation.alpha);
   }
   addRowMeans(analysis, means);

@@ -17,8 +17,16 @@ export type InflationOption =
   | { kind: 'none' }
   /** factor >= 1 on the covariance (1.02 = 2 % per analysis). */
   | { kind: 'multiplicative'; factor: number }
-  /** alpha in [0, 1]: 0 = no relaxation, 1 = analysis keeps the forecast spread. */
-  | { kind: 'relaxation-to-prior-spread'; alpha: number };
+  /**
+   * alpha in [0, 1]: 0 = no relaxation, 1 = analysis keeps the forecast spread. `exceptParameters`
+   * names parameters whose analysis spread is kept as it is (e.g. a sensor's constant bias: no
+   * model error to make up for, so relaxing it only re-widens it at every analysis).
+   */
+  | {
+      kind: 'relaxation-to-prior-spread';
+      alpha: number;
+      exceptParameters?: readonly string[];
+    };
 
 /**
  * Default: multiplicative, 1.02 per analysis. With readings every 5 minutes that is a memory of

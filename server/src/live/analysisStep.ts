@@ -50,7 +50,13 @@ export function analysisStep(
       inflation:
         options.rtpsAlpha === null
           ? { kind: 'multiplicative', factor: options.inflationFactor }
-          : { kind: 'relaxation-to-prior-spread', alpha: options.rtpsAlpha },
+          : {
+              kind: 'relaxation-to-prior-spread',
+              alpha: options.rtpsAlpha,
+              exceptParameters: options.rtpsOnBiases
+                ? []
+                : context.specs.slice(PARAMETER_INDEX.firstBias).map((spec) => spec.name),
+            },
       method:
         options.localisationHalfWidthM === null
           ? { kind: 'etkf' }

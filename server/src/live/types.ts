@@ -90,6 +90,12 @@ export interface RunEngineOptions {
   /** Relaxation to prior spread alpha (Whitaker and Hamill 2012) [0.7, our choice]; null: multiplicative inflation by inflationFactor. */
   rtpsAlpha?: number | null;
   /**
+   * Whether RTPS also relaxes the spread of the probes' RH biases [false, our choice from the
+   * twin experiment, see engineOptions.ts]: a bias is a constant of the sensor with no model
+   * error, so its spread is left where the analysis puts it.
+   */
+  rtpsOnBiases?: boolean;
+  /**
    * What an analysis updates: 'state-and-parameters' (cell suctions, bleed film and parameters)
    * or 'parameters' (each member's state stays its own model run) ['state-and-parameters'].
    */
