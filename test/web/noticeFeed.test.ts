@@ -1,12 +1,13 @@
 /** The crew notices of a run page (web/src/noticeFeed.ts): the list and the level on top. */
 import { describe, expect, it } from 'vitest';
+import type { NoticeKind } from '../../server/src/alerts/types.ts';
 import type { Notice, NoticeLevel } from '../../web/src/contract.ts';
 import { currentNotice, upsertNotice } from '../../web/src/noticeFeed.ts';
 
 function notice(
   seq: number,
   level: NoticeLevel,
-  kind = 'margin-outlook',
+  kind: NoticeKind = 'margin-outlook',
   conditionKey = 'margin',
 ): Notice {
   return {
@@ -29,6 +30,7 @@ function notice(
     deliveries: [],
     acknowledgedAtMs: null,
     acknowledgedBy: null,
+    repeat: false,
   };
 }
 
@@ -83,15 +85,5 @@ describe('currentNotice()', () => {
     ],
   ])('%s', (_title, notices, expectedSeq) => {
     expect(currentNotice(notices)?.seq ?? null).toBe(expectedSeq);
-  });
-
-  it('uses the kind as the concern when the server gives no conditionKey', () => {
-    const withoutKey = (entry: Notice): Notice => {
-      const copy = { ...entry };
-      delete copy.conditionKey;
-      return copy;
-    };
-    const notices = [notice(2, 'NOTE', 'measure-logged'), notice(1, 'ACT NOW')].map(withoutKey);
-    expect(currentNotice(notices)?.seq).toBe(1);
   });
 });

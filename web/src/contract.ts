@@ -1,72 +1,17 @@
 /**
- * The shapes the dashboard reads from the server. RunState and its parts come from the live
- * engine's own types (type-only imports, erased from the bundle); the crew notices and the
- * figure history follow the contract agreed between the parts (notices: alerts; figures: live
- * host), and the run and measure answers server/src/api/README.md.
+ * The shapes the dashboard reads from the server. RunState, the crew notices and the figure
+ * history are the server's own types (type-only imports, erased from the bundle), so a change
+ * on either side fails the type check; the run and measure answers follow
+ * server/src/api/README.md.
  */
 import type { RunState } from '../../server/src/live/types.ts';
 import type { RunConfig } from '../../server/src/config/runConfig.ts';
 
 export type { RunState };
-
-/** Levels of a crew notice (vocabulary.md), always shown in words. */
-export type NoticeLevel = 'NOTE' | 'PREPARE' | 'ACT NOW' | 'CRACKING LIKELY';
-
-/** One delivery of a notice to one recipient. */
-export interface NoticeDelivery {
-  channel: string;
-  recipient: string;
-  status: 'pending' | 'sent' | 'failed';
-  attempts: number;
-  lastAttemptMs: number | null;
-  error: string | null;
-  /** Wall-clock time of the next attempt, ms; null when none is due (a field the server adds). */
-  nextAttemptMs?: number | null;
-}
-
-/** A crew notice (GET /api/runs/:id/notices, socket.io `notice`). */
-export interface Notice {
-  id: string;
-  runId: string;
-  seq: number;
-  level: NoticeLevel;
-  kind: string;
-  /**
-   * The concern it is about (`margin`, `evaporation`, `sensor:<device>/<sensor>`...): the level
-   * is kept per concern (a field the server adds; absent, the kind stands in for it).
-   */
-  conditionKey?: string;
-  /** True for a repeat of an unacknowledged notice (a field the server adds). */
-  repeat?: boolean;
-  /** Engine event time it was raised at, ms. */
-  raisedAtMs: number;
-  title: string;
-  text: string;
-  figures: {
-    utilization: number | null;
-    marginMPa: number | null;
-    evaporationKgM2h: number | null;
-    expectedClosingMs: number | null;
-    probabilityCracking: number | null;
-  };
-  deliveries: NoticeDelivery[];
-  acknowledgedAtMs: number | null;
-  acknowledgedBy: string | null;
-}
-
-/** One point of the figure history (GET /api/runs/:id/figures), one per engine update. */
-export interface FigurePoint {
-  eventTimeMs: number;
-  phase: RunState['phase'];
-  surfaceStressMPa: number | null;
-  fctmMPa: number | null;
-  utilization: number | null;
-  marginMPa: number | null;
-  evaporationKgM2h: number | null;
-  bleedFilmKgM2: number | null;
-  utilizationP05: number | null;
-  utilizationP95: number | null;
-}
+/** Crew notices (GET /api/runs/:id/notices, socket.io `notice`): the alerts' own types. */
+export type { Notice, NoticeDelivery, NoticeLevel } from '../../server/src/alerts/types.ts';
+/** One point of the figure history (GET /api/runs/:id/figures): the store's own type. */
+export type { FigurePoint } from '../../server/src/store/figureHistory.ts';
 
 /** A run in GET /api/runs. */
 export interface RunSummary {

@@ -19,13 +19,13 @@ export function upsertNotice(notices: readonly Notice[], notice: Notice): Notice
  * concern (`conditionKey`: the margin, the evaporation, a silent sensor...), so the page takes the
  * newest notice of each concern (an "eased" one included: it says that concern cleared or
  * dropped) and shows the most urgent of those, the newest among equals. A NOTE such as "measure
- * logged" thus never hides an ACT NOW on the margin, while the margin's own easing does. Without
- * a conditionKey the kind stands in for it. Null when there is no notice.
+ * logged" thus never hides an ACT NOW on the margin, while the margin's own easing does. Null
+ * when there is no notice.
  */
 export function currentNotice(notices: readonly Notice[]): Notice | null {
   const newestPerConcern = new Map<string, Notice>();
   for (const notice of notices) {
-    const concern = notice.conditionKey ?? notice.kind;
+    const concern = notice.conditionKey;
     const known = newestPerConcern.get(concern);
     if (known === undefined || notice.seq > known.seq) newestPerConcern.set(concern, notice);
   }
