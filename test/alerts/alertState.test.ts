@@ -92,8 +92,18 @@ describe('AlertState', () => {
     ]);
   });
 
-  it('update() repeats an unacknowledged ACT NOW every 30 min of event time while it holds', () => {
-    expect(play(repeat({ utilization: 0.6 }, 13))).toEqual([
+  it('update() repeats an unacknowledged ACT NOW after 30 min of event time, then twice as long each time, while it holds', () => {
+    expect(play(repeat({ utilization: 0.6 }, 45))).toEqual([
+      '0 ACT NOW utilization',
+      '30 ACT NOW utilization repeat',
+      '90 ACT NOW utilization repeat',
+      '210 ACT NOW utilization repeat',
+    ]);
+  });
+
+  it('update() repeats every 30 min with renotifyGrowth 1', () => {
+    const state = new AlertState(parseAlertOptions({ renotifyGrowth: 1 }));
+    expect(play(repeat({ utilization: 0.6 }, 13), state)).toEqual([
       '0 ACT NOW utilization',
       '30 ACT NOW utilization repeat',
       '60 ACT NOW utilization repeat',
@@ -114,11 +124,10 @@ describe('AlertState', () => {
     expect(lines).toEqual(['0 ACT NOW utilization', '30 ACT NOW utilization repeat']);
     acked.add('n-6'); // the repeat, sent at step 6
     expect(play(repeat({ utilization: 0.6 }, 14), state, (id) => acked.has(id), 7)).toEqual([]);
-    // without the acknowledgement it would have repeated at 60 and 90 min
+    // without the acknowledgement it would have repeated at 90 min (30 + 2 x 30)
     const twin = new AlertState(DEFAULT_ALERT_OPTIONS);
     play(repeat({ utilization: 0.6 }, 7), twin);
     expect(play(repeat({ utilization: 0.6 }, 14), twin, () => false, 7)).toEqual([
-      '60 ACT NOW utilization repeat',
       '90 ACT NOW utilization repeat',
     ]);
   });

@@ -131,7 +131,7 @@ describe('CrewNotices', () => {
     await r.notices.outbox.flush();
     const notices = r.notices.list('run-1');
     // lead time 60 min: ACT NOW when the closing is 60 min ahead (minute 40), CRACKING LIKELY
-    // 15 min ahead (85), repeats every 30 min unacknowledged, eased 30 min after U < 0.95 (135)
+    // 15 min ahead (85), a first repeat 30 min later unacknowledged, eased 30 min after U < 0.95 (135)
     expect(summary([...notices].reverse())).toEqual([
       '1 0 PREPARE margin-outlook',
       '2 40 ACT NOW margin-outlook',

@@ -47,6 +47,12 @@ export const alertOptionsSchema = z.strictObject({
   dwellMin: minutes(30, 1440),
   /** Event time after which an unacknowledged ACT NOW or CRACKING LIKELY is sent again, min [30, our assumption; 0: never]. */
   renotifyMin: minutes(30, 1440),
+  /**
+   * Each further repeat waits this many times longer than the one before: 30, 60, 120 min...
+   * [2, our assumption: a warning nobody answers is sent again soon, then less often, so an
+   * unattended deck is not flooded; 1: every renotifyMin].
+   */
+  renotifyGrowth: z.number().min(1).max(10).default(2),
   /** Raise NOTEs for silent sensors and degraded data [true]. */
   dataNotes: z.boolean().default(true),
 });

@@ -11,8 +11,10 @@
  *   conditions (thresholds relaxed by the hysteresis) keep it at that level;
  * - easing: when the hold conditions stay below the notified level for `dwellMin` of event time,
  *   a NOTE of kind `eased` says so, and the concern drops to the level still held (or clears);
- * - repeat: an unacknowledged ACT NOW or CRACKING LIKELY is sent again every `renotifyMin` of
- *   event time while it holds (our assumption: a phone notice can be missed on a noisy deck).
+ * - repeat: an unacknowledged ACT NOW or CRACKING LIKELY is sent again after `renotifyMin` of
+ *   event time while it holds, each further repeat `renotifyGrowth` times later than the one
+ *   before (30, 60, 120 min...; our assumption: a phone notice can be missed on a noisy deck,
+ *   and one nobody answers should not flood the phone).
  * States at or before the last event time seen are ignored: a replay after a restart feeds the
  * states since the engine's last snapshot again, and they must not raise anything twice.
  */
@@ -110,7 +112,10 @@ export class AlertState {
         });
       } else if (held !== null && rankOf(held) >= levelRank(concern.level)) {
         concern.belowSinceMs = null;
-        const repeatMs = this.#options.renotifyMin * 60_000;
+        // noticeIds holds the first notice at this level and its repeats.
+        const repeatsSent = Math.max(0, concern.noticeIds.length - 1);
+        const repeatMs =
+          this.#options.renotifyMin * 60_000 * this.#options.renotifyGrowth ** repeatsSent;
         const repeats = levelRank(concern.level) >= levelRank('ACT NOW') && repeatMs > 0;
         const acknowledged = concern.noticeIds.some((id) => isAcknowledged(id));
         if (repeats && !acknowledged && eventTimeMs - concern.notifiedAtMs >= repeatMs) {
