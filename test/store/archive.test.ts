@@ -44,6 +44,19 @@ describe('Archive', () => {
     normal.close();
   });
 
+  it("indexes readings by message, so feeding a message to the live engine does not search all of the run's readings", () => {
+    const db = openDatabase(join(dir, 'indexes.sqlite'));
+    const plan = db
+      .prepare(
+        'EXPLAIN QUERY PLAN SELECT id FROM readings WHERE message_id = ? AND run_id = ? ORDER BY id',
+      )
+      .all(1, 'run-1') as { detail: string }[];
+    expect(plan.map((step) => step.detail).join('; ')).toMatch(
+      /INDEX readings_message \(message_id=\?\)/,
+    );
+    db.close();
+  });
+
   it('runs each migration once and refuses a file written by a newer schema', () => {
     const path = join(dir, 'versions.sqlite');
     openDatabase(path).close();

@@ -178,4 +178,10 @@ export const MIGRATIONS: readonly string[] = [
     state_json TEXT NOT NULL
   ) STRICT;
   `,
+  // 6: a message's readings by message id. The live host reads each message's readings as it feeds
+  // the engine; without this index SQLite searched all of the run's readings (readings_run_time)
+  // for every message, so catching up slowed as the run grew (quadratic over a long run).
+  `
+  CREATE INDEX readings_message ON readings(message_id);
+  `,
 ];
