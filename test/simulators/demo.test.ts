@@ -189,8 +189,22 @@ describe('the demo with the measure log "fogging"', () => {
         { kind: 'windbreak', windFactor: 0.4 },
       ]);
       expect(printed.filter((line) => line.includes('did not log the measure'))).toEqual([]);
-      // the crew acted on time: no notice says cracking is likely
-      expect(demo.notices().filter((notice) => notice.level === 'CRACKING LIKELY')).toEqual([]);
+      // The crew acted on time: once the measures are logged and the outlook has had a cycle to
+      // count them (15 min after the windbreak, our assumption), no notice says cracking is
+      // likely. Before the fogging starts at 12:50 the outlook knows nothing of it: an ensemble
+      // whose median closes the margin some 20 min before the hidden truth's (13:17 without
+      // measures) may then rightly say CRACKING LIKELY at 12:45. Known weakness, not asserted
+      // away: in some runs the margin's ACT NOW is still repeated after the measures (the
+      // outlook closes the margin near the bulk's set, about 14:30, which the truth does not).
+      const settledMs = Date.parse('2026-07-16T13:15:00+02:00');
+      const summary = demo
+        .notices()
+        .map((n) => `${new Date(n.raisedAtMs).toISOString()} ${n.title}`)
+        .join('\n');
+      const cracking = demo
+        .notices()
+        .filter((n) => n.raisedAtMs >= settledMs && n.level === 'CRACKING LIKELY');
+      expect(cracking, summary).toEqual([]);
     } finally {
       await demo.server.close();
       rmSync(dataDir, { recursive: true, force: true });
