@@ -20,7 +20,7 @@ import { NoticeOutbox } from './noticeOutbox.ts';
 import type { NoticeOutboxOptions } from './noticeOutbox.ts';
 import { noticeRules } from './noticeRules.ts';
 import { noticeText } from './noticeText.ts';
-import type { Notice, NoticeDraft } from './types.ts';
+import type { Notice, NoticeDraft, NoticeFigures } from './types.ts';
 import { localClock, offsetMinOf } from './_localTime.ts';
 import { noticeFigures } from './noticeRules.ts';
 
@@ -140,10 +140,7 @@ export class CrewNotices {
                 ],
                 eased: null,
                 repeat: false,
-                figures:
-                  last === undefined
-                    ? noticeFigures({ ...emptyFigures, runId }, run.config)
-                    : noticeFigures(last, run.config),
+                figures: last === undefined ? NO_FIGURES : noticeFigures(last, run.config),
               },
               last?.phase ?? 'plastic',
             ),
@@ -256,26 +253,11 @@ export class CrewNotices {
   }
 }
 
-/** A state without figures, for a measure noted before the engine's first state. */
-const emptyFigures: RunState = {
-  runId: '',
-  eventTimeMs: null,
-  phase: 'plastic',
-  surfaceStressMPa: null,
-  fctmMPa: null,
+/** The figures of a notice raised before the engine's first state: none yet. */
+const NO_FIGURES: NoticeFigures = {
   utilization: null,
   marginMPa: null,
   evaporationKgM2h: null,
-  inPlaceCompressiveStrengthMPa: null,
-  timeToTargetStrengthH: null,
-  nowBands: null,
-  bleedFilmKgM2: null,
-  bleedFilmRemainingH: null,
-  analysisCount: 0,
-  memberCount: 0,
-  outlook: null,
-  profiles: null,
-  calibration: [],
-  quality: { degraded: false, flags: [] },
-  caution: '',
+  expectedClosingMs: null,
+  probabilityCracking: null,
 };
