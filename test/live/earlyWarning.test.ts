@@ -10,7 +10,7 @@ import { describe, expect, it } from 'vitest';
 import { createRunEngine } from '../../server/src/live/index.ts';
 import type { RunOutlook } from '../../server/src/live/index.ts';
 import { loadScenarioFolder } from '../../simulators/src/scenarioFolder.ts';
-import { playTwin } from './twinReadings.ts';
+import { playTwin, readingBatches } from './twinReadings.ts';
 
 const folder = loadScenarioFolder('level3-topping');
 const MINUTE_MS = 60_000;
@@ -35,11 +35,7 @@ describe('live engine early warning (level3-topping, no action)', () => {
         ((1 - before.utilization) / (after.utilization - before.utilization)) *
           (after.timeMs - before.timeMs);
   const leadMs = folder.runConfig.leadTimeMin * MINUTE_MS;
-  const batches = new Map<number, typeof twin.readings>();
-  for (const reading of twin.readings) {
-    const key = Math.floor(reading.eventTimeMs / 600_000);
-    batches.set(key, [...(batches.get(key) ?? []), reading]);
-  }
+  const batches = readingBatches(twin.readings, 600);
 
   const warn = (runId: string): WarningResult => {
     const engine = createRunEngine(runId, folder.runConfig, {
@@ -48,8 +44,8 @@ describe('live engine early warning (level3-topping, no action)', () => {
     });
     engine.setMeasures(twin.measures);
     const outlooks: RunOutlook[] = [];
-    for (const key of [...batches.keys()].sort((a, b) => a - b)) {
-      engine.addReadings(batches.get(key) ?? []);
+    for (const batch of batches) {
+      engine.addReadings(batch);
       const outlook = engine.advance()?.outlook;
       if (outlook != null && outlooks.at(-1)?.timesMs[0] !== outlook.timesMs[0]) {
         outlooks.push(outlook);

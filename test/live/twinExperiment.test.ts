@@ -27,7 +27,7 @@ import { describe, expect, it } from 'vitest';
 import { createRunEngine } from '../../server/src/live/index.ts';
 import type { RunEngineOptions, RunState } from '../../server/src/live/index.ts';
 import { loadScenarioFolder } from '../../simulators/src/scenarioFolder.ts';
-import { playTwin } from './twinReadings.ts';
+import { playTwin, readingBatches } from './twinReadings.ts';
 import type { TwinRun } from './twinReadings.ts';
 import { twinFigures } from '../helpers/twinMetrics.ts';
 
@@ -40,13 +40,8 @@ function replay(twin: TwinRun, runId: string, options: RunEngineOptions): Map<nu
   const engine = createRunEngine(runId, folder.runConfig, options);
   engine.setMeasures(twin.measures);
   const states = new Map<number, RunState>();
-  const batches = new Map<number, TwinRun['readings']>();
-  for (const reading of twin.readings) {
-    const key = Math.floor(reading.eventTimeMs / 300_000);
-    batches.set(key, [...(batches.get(key) ?? []), reading]);
-  }
-  for (const key of [...batches.keys()].sort((a, b) => a - b)) {
-    engine.addReadings(batches.get(key) ?? []);
+  for (const batch of readingBatches(twin.readings, 300)) {
+    engine.addReadings(batch);
     const state = engine.advance();
     if (state?.eventTimeMs != null) states.set(state.eventTimeMs, state);
   }

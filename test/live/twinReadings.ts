@@ -37,6 +37,21 @@ export interface TwinRun {
   truth: TruthSample[];
 }
 
+/**
+ * The twin's readings in batches of `batchS` of event time (aligned to the epoch), oldest
+ * first: how the twin tests feed an engine (one batch, then an advance).
+ */
+export function readingBatches(readings: readonly LiveReading[], batchS: number): LiveReading[][] {
+  const batches = new Map<number, LiveReading[]>();
+  for (const reading of readings) {
+    const key = Math.floor(reading.eventTimeMs / (batchS * 1000));
+    const batch = batches.get(key);
+    if (batch === undefined) batches.set(key, [reading]);
+    else batch.push(reading);
+  }
+  return [...batches.keys()].sort((a, b) => a - b).map((key) => batches.get(key) ?? []);
+}
+
 /** SenML pack -> committed readings (base name `<device>/`, base time s, offsets s). */
 export function packReadings(pack: readonly SenmlRecord[]): LiveReading[] {
   const first = pack[0];

@@ -15,7 +15,7 @@ import type { RunEngine, RunEngineOptions, RunState } from '../../server/src/liv
 import { PARAMETER_INDEX } from '../../server/src/live/memberModel.ts';
 import { loadScenarioFolder } from '../../simulators/src/scenarioFolder.ts';
 import { truthStressMPa, twinFigures } from '../helpers/twinMetrics.ts';
-import { playTwin } from './twinReadings.ts';
+import { playTwin, readingBatches } from './twinReadings.ts';
 import type { TwinRun } from './twinReadings.ts';
 
 const folder = loadScenarioFolder('level3-topping');
@@ -67,13 +67,8 @@ function replay(
   let patched = !hidden;
   engine.setMeasures(twin.measures);
   const states = new Map<number, RunState>();
-  const batches = new Map<number, TwinRun['readings']>();
-  for (const reading of twin.readings) {
-    const key = Math.floor(reading.eventTimeMs / 300_000);
-    batches.set(key, [...(batches.get(key) ?? []), reading]);
-  }
-  for (const key of [...batches.keys()].sort((a, b) => a - b)) {
-    engine.addReadings(batches.get(key) ?? []);
+  for (const batch of readingBatches(twin.readings, 300)) {
+    engine.addReadings(batch);
     const state = engine.advance();
     if (!patched) {
       const restarted = withHiddenParameters(engine, runId, options);
