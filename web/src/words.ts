@@ -42,7 +42,7 @@ const LEVEL_MEANING: Record<NoticeLevel, string> = {
   NOTE: 'information',
   PREPARE: 'get protection ready',
   'ACT NOW': 'apply protection now',
-  'CRACKING LIKELY': 'stress at or above strength, now or very soon',
+  'CRACKING LIKELY': 'utilization at or above 1, now or very soon',
 };
 
 /** What a level asks of the crew, e.g. "ACT NOW" -> "apply protection now" (vocabulary.md). */

@@ -15,6 +15,13 @@ describe('utilizationWords()', () => {
     expect(utilizationWords(utilization, thresholds)).toBe(expected);
   });
 
+  it('before final set says the suction has reached air entry, not that stress reached strength (physics.md 7)', () => {
+    expect(utilizationWords(1.2, thresholds, 'plastic')).toBe(
+      'at or above 1: suction has reached air entry, the surface starts to drain',
+    );
+    expect(utilizationWords(0.8, thresholds, 'plastic')).toBe('past the threshold 0.69');
+  });
+
   it('reads thresholds in any order', () => {
     expect(utilizationWords(0.6, [1.0, 0.57, 0.69])).toBe('past the threshold 0.57');
   });

@@ -349,7 +349,7 @@ describe('crew notices on the run page', () => {
     rig.server.io.to(runRoom(rig.runId)).emit('notice', notice);
     await expect.poll(() => page.textContent('#notice-level')).toBe('CRACKING LIKELY');
     const banner = (await page.textContent('#notice-banner')) ?? '';
-    expect(banner).toContain('stress at or above strength, now or very soon');
+    expect(banner).toContain('utilization at or above 1, now or very soon');
     expect(banner).toContain(notice.title);
     expect(banner).toContain('raised at 15:35');
     const item = page.locator(`#notice-${notice.id}`);

@@ -24,17 +24,24 @@ function bigValue(text: string, testId: string): HTMLElement {
   return el('p', { class: `big-value${inWords ? ' in-words' : ''}`, 'data-figure': testId }, text);
 }
 
-/** Where utilization stands against the thresholds, in words. */
+/**
+ * Where utilization stands against the thresholds, in words. Before final set utilization is the
+ * surface suction over the air-entry suction (physics.md 7), after it stress over strength.
+ */
 export function utilizationWords(
   utilization: number | null,
   thresholds: readonly number[],
+  phase: RunState['phase'] = 'hardening',
 ): string {
   if (utilization === null) return 'not yet computed';
   const sorted = [...thresholds].sort((a, b) => a - b);
   const passed = sorted.filter((threshold) => utilization >= threshold);
   if (passed.length === 0) return `below the first threshold (${formatFigure(sorted[0], 2, '')})`;
   const highest = passed[passed.length - 1] ?? 0;
-  if (utilization >= 1) return 'at or above 1: stress has reached strength';
+  if (utilization >= 1)
+    return phase === 'hardening'
+      ? 'at or above 1: stress has reached strength'
+      : 'at or above 1: suction has reached air entry, the surface starts to drain';
   return `past the threshold ${formatFigure(highest, 2, '')}`;
 }
 
@@ -61,7 +68,9 @@ export function renderFigureGauges(
   const pastFirst = u !== null && u >= Math.min(...thresholds.utilization);
   const utilization = card(
     'gauge-utilization',
-    'Utilization (stress / strength)',
+    state.phase === 'hardening'
+      ? 'Utilization (stress / strength)'
+      : 'Utilization (suction / air-entry suction, before final set)',
     bigValue(u === null ? notDefined(state) : formatFigure(u, 2, ''), 'utilization'),
     meterBar({
       name: 'utilization',
@@ -73,7 +82,7 @@ export function renderFigureGauges(
       })),
       tone: u !== null && u >= 1 ? 'at-limit' : pastFirst ? 'past-threshold' : 'calm',
     }),
-    el('p', {}, utilizationWords(u, thresholds.utilization)),
+    el('p', {}, utilizationWords(u, thresholds.utilization, state.phase)),
     bands === null
       ? null
       : el(
@@ -122,6 +131,13 @@ export function renderFigureGauges(
     meterBar({ name: 'surface stress', value: stress, max: stressMax, tone: 'stress' }),
     el('p', { class: 'meter-caption' }, `tensile strength ${formatFigure(strength, 2, 'MPa')}`),
     meterBar({ name: 'tensile strength', value: strength, max: stressMax, tone: 'strength' }),
+    state.phase === 'hardening'
+      ? null
+      : el(
+          'p',
+          { class: 'detail' },
+          'Before final set the risk is the suction (utilization); stress counts from the set.',
+        ),
   );
   const evaporation = state.evaporationKgM2h;
   const aciLimit = thresholds.evaporationKgM2h;
