@@ -128,8 +128,6 @@ export function createElementModel(config: ElementModelConfig): ElementModel {
   const humidityOptions: HydrationHumidityOptions = {};
   const surfaceOptions: SurfaceEvaporationOptions = { ...options.surface };
   const waterBefore = new Float64Array(n);
-  const targetStorage = new Float64Array(n);
-  const targetScale = new Float64Array(n);
   const maturityRate = new Float64Array(n);
   // Temperature for which maturityRate[i] was computed: cells share a handful of temperatures
   // and the Arrhenius factor only changes with them.
@@ -186,14 +184,14 @@ export function createElementModel(config: ElementModelConfig): ElementModel {
   const scaleBefore = new Float64Array(n);
 
   /**
-   * After the water-content curve of cells changed (temperature, refinement, storage), moves
-   * their pressures so each cell holds the same water as before: mass is conserved exactly (to
-   * rounding) through the change. `scaleBefore` holds each cell's pressure scale before it.
+   * After the temperatures changed the water-content curves, moves the pressures so each cell
+   * holds the same water as before: mass is conserved exactly (to rounding) through the change.
+   * `scaleBefore` holds each cell's pressure scale before it. (Hydration's changes of the curves
+   * go through `rescaleKeepingWater`, in updateMaturity.)
    */
-  const remapPressures = (state: ElementState, onlyMarked = false): void => {
+  const remapPressures = (state: ElementState): void => {
     const pressures = state.transport.pressurePa;
     for (let i = 0; i < n; i += 1) {
-      if (onlyMarked && remapCell[i] === 0) continue;
       pressures[i] = hydraulics.pressureKeepingWater(
         i,
         waterBefore[i] as number,
@@ -385,7 +383,7 @@ export function createElementModel(config: ElementModelConfig): ElementModel {
 
   // Hydration humidity factor against x = -p / A = -ln h (see _humidityFactorTable.ts).
   const humidityFactor = createHumidityFactorTable(humidityOptions);
-  const inverseKelvin = new Float64Array(n);
+  const inverseKelvin = hydraulics.inverseKelvinPerPa;
 
   const updateMaturity = (state: ElementState, stepS: number): void => {
     if (mix === undefined) return;
@@ -393,9 +391,6 @@ export function createElementModel(config: ElementModelConfig): ElementModel {
     const ages = state.equivalentAgeS;
     const storages = state.specificStoragePerPa;
     const scales = state.diameterScale;
-    if (humidityFactorOn) {
-      for (let i = 0; i < n; i += 1) inverseKelvin[i] = hydraulics.inverseKelvinCoefficientPerPa(i);
-    }
     let update = false;
     for (let i = 0; i < n; i += 1) {
       const pressure = pressures[i] as number;
@@ -414,25 +409,18 @@ export function createElementModel(config: ElementModelConfig): ElementModel {
         Math.abs(storage - storageNow) > threshold * storageNow ||
         Math.abs(scale - scaleNow) > threshold * scaleNow
       ) {
-        targetStorage[i] = storage;
-        targetScale[i] = scale;
+        storages[i] = storage;
+        scales[i] = scale;
         remapCell[i] = 1;
         update = true;
       } else {
-        targetStorage[i] = storageNow;
-        targetScale[i] = scaleNow;
         remapCell[i] = 0;
       }
     }
-    if (!update) return;
-    waterBefore.set(workspace.water);
-    scaleBefore.set(hydraulics.pressureScale);
-    storages.set(targetStorage);
-    scales.set(targetScale);
-    hydraulics.diameterScale.set(targetScale);
-    hydraulics.specificStoragePerPa.set(targetStorage);
-    hydraulics.refreshScale();
-    remapPressures(state, true);
+    // The moved cells keep the water of the step's last evaluation (the workspace holds it).
+    if (update) {
+      hydraulics.rescaleKeepingWater(remapCell, scales, storages, workspace.water, pressures);
+    }
   };
 
   return {

@@ -108,6 +108,20 @@ export interface PoreHydraulics extends CellHydraulics {
     pressurePa: number,
     previousScale: number,
   ): number;
+  /**
+   * For every cell with `marks[i]` = 1: takes the pore-diameter factor `scales[i]` and the
+   * specific storage `storages[i]` (1/Pa) and moves `pressures[i]` (Pa, read and written) so the
+   * cell keeps the water content `water[i]` (m3/m3): what writing `diameterScale` and
+   * `specificStoragePerPa`, `refreshScale()` and {@link pressureKeepingWater} do, in one pass over
+   * the marked cells only (the element model does it for the cells hydration refined).
+   */
+  rescaleKeepingWater(
+    marks: Uint8Array,
+    scales: Float64Array,
+    storages: Float64Array,
+    water: Float64Array,
+    pressures: Float64Array,
+  ): void;
   /** Equivalent pore pressure pi of cell i at liquid pressure p, Pa (Coussy 2004). */
   equivalentPorePressurePa(cell: number, pressurePa: number): number;
   /** Air-entry pressure of cell i, Pa (< 0). */
@@ -116,6 +130,8 @@ export interface PoreHydraulics extends CellHydraulics {
   relativeHumidity(cell: number, pressurePa: number): number;
   /** 1 / A(T_i) of cell i, 1/Pa: the Kelvin equation is h = exp(p / A). */
   inverseKelvinCoefficientPerPa(cell: number): number;
+  /** 1 / A(T_i) of every cell, 1/Pa (derived, read only: refreshed with the temperatures). */
+  readonly inverseKelvinPerPa: Float64Array;
 }
 
 /**
@@ -172,6 +188,7 @@ export function createPoreHydraulics(options: PoreHydraulicsOptions): PoreHydrau
   const temperatureK = new Float64Array(n).fill(referenceK);
   const diameterScale = new Float64Array(n).fill(1);
   const pressureScale = new Float64Array(n).fill(1);
+  const inverseScale = new Float64Array(n).fill(1); // 1 / c_i
   const tensionRatio = new Float64Array(n); // gamma_ref / gamma(T)
   const inverseViscosity = new Float64Array(n); // 1 / eta(T)
   const liquidFactor = new Float64Array(n); // s^2 m / eta
@@ -190,7 +207,9 @@ export function createPoreHydraulics(options: PoreHydraulicsOptions): PoreHydrau
   const refreshScale = (): void => {
     for (let i = 0; i < n; i += 1) {
       const scale = diameterScale[i] as number;
-      pressureScale[i] = scale * (tensionRatio[i] as number);
+      const pressureScaleOfCell = scale * (tensionRatio[i] as number);
+      pressureScale[i] = pressureScaleOfCell;
+      inverseScale[i] = 1 / pressureScaleOfCell;
       liquidFactor[i] = scale * scale * multiplier * (inverseViscosity[i] as number);
     }
   };
@@ -298,6 +317,41 @@ export function createPoreHydraulics(options: PoreHydraulicsOptions): PoreHydrau
     return -Math.exp(logStart + (low + weight) / inverseStep) / scale;
   };
 
+  const keepWater = (
+    cell: number,
+    target: number,
+    pressurePa: number,
+    previousScale: number,
+  ): number => {
+    const scale = pressureScale[cell] as number;
+    const position = evaluatedPosition[cell] as number;
+    if (
+      evaluatedPressure[cell] === pressurePa &&
+      evaluatedScale[cell] === previousScale &&
+      position < lastNode
+    ) {
+      const storageCoefficient = specificStoragePerPa[cell] as number;
+      const saturation = (target - (storageCoefficient * airEntryRef) / scale) / porosity;
+      const node = position > 0 ? Math.floor(position) : 0;
+      const s0 = tableSaturation[node] as number;
+      const s1 = tableSaturation[node + 1] as number;
+      if (s1 < s0 && saturation <= s0 && saturation > s1) {
+        const du = (node + (saturation - s0) / (s1 - s0) - position) / inverseStep;
+        if (du > -1e-3 && du < 1e-3) {
+          const growth = 1 + du * (1 + (du / 2) * (1 + (du / 3) * (1 + du / 4)));
+          const found = ((pressurePa * previousScale) / scale) * growth;
+          evaluatedPressure[cell] = found;
+          evaluatedScale[cell] = scale;
+          evaluatedStorage[cell] = storageCoefficient;
+          evaluatedPosition[cell] = position + du * inverseStep;
+          evaluatedWater[cell] = target;
+          return found;
+        }
+      }
+    }
+    return pressureForWaterContent(cell, target, (pressurePa * previousScale) / scale);
+  };
+
   return {
     retention,
     permeability,
@@ -305,6 +359,7 @@ export function createPoreHydraulics(options: PoreHydraulicsOptions): PoreHydrau
     temperatureK,
     diameterScale,
     pressureScale,
+    inverseKelvinPerPa: inverseKelvin,
     refreshTemperature,
     refreshScale,
     setPermeabilityMultiplier(value) {
@@ -322,63 +377,57 @@ export function createPoreHydraulics(options: PoreHydraulicsOptions): PoreHydrau
       return waterContent(cell, pressurePa);
     },
     pressureForWaterContent,
-    pressureKeepingWater(cell, target, pressurePa, previousScale) {
-      const scale = pressureScale[cell] as number;
-      const position = evaluatedPosition[cell] as number;
-      if (
-        evaluatedPressure[cell] === pressurePa &&
-        evaluatedScale[cell] === previousScale &&
-        position < lastNode
-      ) {
-        const storageCoefficient = specificStoragePerPa[cell] as number;
-        const saturation = (target - (storageCoefficient * airEntryRef) / scale) / porosity;
-        const node = position > 0 ? Math.floor(position) : 0;
-        const s0 = tableSaturation[node] as number;
-        const s1 = tableSaturation[node + 1] as number;
-        if (s1 < s0 && saturation <= s0 && saturation > s1) {
-          const du = (node + (saturation - s0) / (s1 - s0) - position) / inverseStep;
-          if (du > -1e-3 && du < 1e-3) {
-            const growth = 1 + du * (1 + (du / 2) * (1 + (du / 3) * (1 + du / 4)));
-            const found = ((pressurePa * previousScale) / scale) * growth;
-            evaluatedPressure[cell] = found;
-            evaluatedScale[cell] = scale;
-            evaluatedStorage[cell] = storageCoefficient;
-            evaluatedPosition[cell] = position + du * inverseStep;
-            evaluatedWater[cell] = target;
-            return found;
-          }
-        }
+    pressureKeepingWater: keepWater,
+    rescaleKeepingWater(marks, scales, storages, water, pressures) {
+      for (let i = 0; i < n; i += 1) {
+        if (marks[i] === 0) continue;
+        const previousScale = pressureScale[i] as number;
+        const scale = scales[i] as number;
+        diameterScale[i] = scale;
+        specificStoragePerPa[i] = storages[i] as number;
+        const pressureScaleOfCell = scale * (tensionRatio[i] as number);
+        pressureScale[i] = pressureScaleOfCell;
+        inverseScale[i] = 1 / pressureScaleOfCell;
+        liquidFactor[i] = scale * scale * multiplier * (inverseViscosity[i] as number);
+        pressures[i] = keepWater(i, water[i] as number, pressures[i] as number, previousScale);
       }
-      return pressureForWaterContent(cell, target, (pressurePa * previousScale) / scale);
     },
     equivalentPorePressurePa(cell, pressurePa) {
       const scale = pressureScale[cell] as number;
       return equivalentPressure.fromLiquidPressure(pressurePa * scale) / scale;
     },
     evaluate(pressurePa, water, capacityPerPa, conductivity, storageContent, conductivitySlope) {
+      const wantStorage = storageContent !== undefined;
+      const wantSlope = conductivitySlope !== undefined;
       for (let i = 0; i < n; i += 1) {
         const pressure = pressurePa[i] as number;
         const scale = pressureScale[i] as number;
         const storageCoefficient = specificStoragePerPa[i] as number;
         const liquid = liquidFactor[i] as number;
-        const reference = pressure * scale;
-        if (reference >= airEntryRef) {
+        if (pressure * scale >= airEntryRef) {
           capacityPerPa[i] = storageCoefficient;
           const stored = storageCoefficient * pressure;
           water[i] = porosity + stored;
-          if (storageContent !== undefined) storageContent[i] = stored;
+          if (wantStorage) storageContent[i] = stored;
           conductivity[i] = saturatedPermeability * liquid;
-          if (conductivitySlope !== undefined) conductivitySlope[i] = 0;
+          if (wantSlope) conductivitySlope[i] = 0;
           evaluatedPressure[i] = Number.NaN;
           continue;
         }
         // The table look-up of `lookup`, inlined with locals: this loop runs for every cell in
-        // every iteration, and writes to the shared scratch variables cost more than the maths.
-        const position = (Math.log(-reference) - logStart) * inverseStep;
-        evaluatedPressure[i] = pressure;
-        evaluatedScale[i] = scale;
+        // every iteration. The first evaluation of a step meets each cell at the pressure and
+        // scale the last one (or a remap, pressureKeepingWater) left it at: its position is kept,
+        // without the logarithm.
+        let position: number;
+        if (evaluatedPressure[i] === pressure && evaluatedScale[i] === scale) {
+          position = evaluatedPosition[i] as number;
+        } else {
+          position = (Math.log(-pressure * scale) - logStart) * inverseStep;
+          evaluatedPressure[i] = pressure;
+          evaluatedScale[i] = scale;
+          evaluatedPosition[i] = position;
+        }
         evaluatedStorage[i] = storageCoefficient;
-        evaluatedPosition[i] = position;
         let s: number;
         let permeabilityM2: number;
         let saturationPerU: number; // dS/du
@@ -401,20 +450,24 @@ export function createPoreHydraulics(options: PoreHydraulicsOptions): PoreHydrau
           permeabilityPerU = (k1 - k0) * inverseStep;
         }
         // d/dp = (d/du) / p with u = ln(-p c); dS/dp > 0 as dS/du < 0 and p < 0.
-        const saturationSlope = saturationPerU / pressure;
+        const inversePressure = 1 / pressure;
+        const saturationSlope = saturationPerU * inversePressure;
         capacityPerPa[i] = porosity * saturationSlope;
-        const stored = (storageCoefficient * airEntryRef) / scale;
-        water[i] = porosity * s + stored;
-        evaluatedWater[i] = water[i] as number;
-        if (storageContent !== undefined) storageContent[i] = stored;
-        // Kelvin h = exp(p / A) inline: this loop runs for every cell in every iteration.
+        const stored = storageCoefficient * airEntryRef * (inverseScale[i] as number);
+        const content = porosity * s + stored;
+        water[i] = content;
+        evaluatedWater[i] = content;
+        if (wantStorage) storageContent[i] = stored;
+        // Kelvin h = exp(p / A) inline (p < 0 here): below about 135 kPa of suction |p / A| <
+        // 1e-3 and four terms of the series are exact to rounding (error x^5 / 120 < 1e-16).
         const inverseA = inverseKelvin[i] as number;
-        const humidity = Math.exp(Math.min(0, pressure) * inverseA);
+        const x = pressure * inverseA;
+        const humidity = x > -1e-3 ? 1 + x * (1 + x * (0.5 + x * (1 / 6 + x / 24))) : Math.exp(x);
         const vapour = vapourFactor[i] as number;
         conductivity[i] = permeabilityM2 * liquid + vapour * (1 - s) * humidity;
-        if (conductivitySlope !== undefined) {
+        if (wantSlope) {
           conductivitySlope[i] =
-            (permeabilityPerU * liquid) / pressure +
+            permeabilityPerU * liquid * inversePressure +
             vapour * humidity * ((1 - s) * inverseA - saturationSlope);
         }
       }
