@@ -194,8 +194,13 @@ describe('the demo with the measure log "fogging"', () => {
       // likely. Before the fogging starts at 12:50 the outlook knows nothing of it: an ensemble
       // whose median closes the margin some 20 min before the hidden truth's (13:17 without
       // measures) may then rightly say CRACKING LIKELY at 12:45. Known weakness, not asserted
-      // away: in some runs the margin's ACT NOW is still repeated after the measures (the
-      // outlook closes the margin near the bulk's set, about 14:30, which the truth does not).
+      // away: the margin's ACT NOW is still repeated after the measures, at 13:40 to 14:10 in
+      // each of 8 run ids replayed on the engine alone (test/live/foggingNotices.ts 1-8), and a
+      // CRACKING LIKELY follows at 14:20 to 14:50, after this test's 3 h. The outlook's members
+      // have run out of bleed water (their initial film comes from the prior, median 0.2 kg/m2,
+      // against the truth's 0.7, and the probes cannot see a film), and under the fog's
+      // remaining evaporation their surface suction reaches air entry just before set;
+      // test/live/foggingOutlook.test.ts holds the figures.
       const settledMs = Date.parse('2026-07-16T13:15:00+02:00');
       const summary = demo
         .notices()
