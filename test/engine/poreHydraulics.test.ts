@@ -2,6 +2,7 @@ import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import { createPoreHydraulics } from '../../server/src/engine/poreHydraulics.ts';
 import { waterSurfaceTensionNPerM } from '../../server/src/physics/waterSurfaceTension.ts';
+import { equivalentPorePressureCurve } from '../../server/src/physics/equivalentPorePressure.ts';
 
 const poreSizes = {
   kind: 'lognormal' as const,
@@ -121,6 +122,30 @@ describe('createPoreHydraulics()', () => {
       });
     },
   );
+
+  it('equivalentPorePressurePa() reads its table within 2e-6 of the physics curve (Coussy 2004), refined and warm cells too', () => {
+    const hydraulics = make();
+    hydraulics.diameterScale[1] = 0.37;
+    hydraulics.temperatureK[2] = 303.15;
+    hydraulics.refreshTemperature();
+    const curve = equivalentPorePressureCurve(hydraulics.retention);
+    for (const cell of [0, 1, 2]) {
+      const scale = hydraulics.pressureScale[cell] as number;
+      const airEntrySuction = -hydraulics.airEntryPressurePa(cell);
+      // From the air entry to 1e8 times it, 0.001 apart in ln(suction): nodes and between them.
+      for (let k = 0; k <= 18000; k += 1) {
+        const pressure = -airEntrySuction * Math.exp(k * 0.001);
+        const exact = curve.fromLiquidPressure(pressure * scale) / scale;
+        expect(
+          Math.abs(hydraulics.equivalentPorePressurePa(cell, pressure) / exact - 1),
+        ).toBeLessThan(2e-6);
+      }
+      // Saturated: pi is the liquid pressure itself.
+      expect(hydraulics.equivalentPorePressurePa(cell, -0.5 * airEntrySuction)).toBe(
+        -0.5 * airEntrySuction,
+      );
+    }
+  });
 
   it('refined pores (diameters halved) need twice the suction for the same saturation', () => {
     const hydraulics = make();

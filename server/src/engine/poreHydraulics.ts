@@ -165,6 +165,21 @@ export function createPoreHydraulics(options: PoreHydraulicsOptions): PoreHydrau
   const saturatedPermeability = table.saturatedPermeabilityM2;
   const logStart = table.logSuctionStart;
   const inverseStep = table.inverseStep;
+  // pi at the saturation table's nodes, filled the first time a look-up needs them (a whole
+  // table would cost 0.4 ms per model): linear in u = ln(suction) between nodes, within 1e-6 of
+  // the curve (test/engine/poreHydraulics.test.ts), like the saturation it is read beside.
+  const equivalentNodes = new Float64Array(table.nodeCount).fill(Number.NaN);
+  const equivalentAtNode = (node: number): number => {
+    let value = equivalentNodes[node] as number;
+    if (Number.isNaN(value)) {
+      value =
+        node === 0
+          ? retention.airEntryPressurePa
+          : equivalentPressure.fromLiquidPressure(-Math.exp(logStart + node / inverseStep));
+      equivalentNodes[node] = value;
+    }
+    return value;
+  };
   // Scratch of the interpolation (module-free, no allocation per call).
   let lookupSaturation = 1;
   /** Interpolates the saturation table at a reference pressure below the air entry. */
@@ -269,7 +284,11 @@ export function createPoreHydraulics(options: PoreHydraulicsOptions): PoreHydrau
       return evaluatedWater[cell] as number; // the same numbers, computed by the last evaluate()
     }
     lookup(reference);
-    return porosity * lookupSaturation + (storageCoefficient * airEntryRef) / scale;
+    // The same expression as evaluate(), so both give the same bits.
+    return (
+      porosity * lookupSaturation +
+      storageCoefficient * airEntryRef * (inverseScale[cell] as number)
+    );
   };
 
   const pressureForWaterContent = (cell: number, target: number, guessPa: number): number => {
@@ -340,11 +359,26 @@ export function createPoreHydraulics(options: PoreHydraulicsOptions): PoreHydrau
         if (du > -1e-3 && du < 1e-3) {
           const growth = 1 + du * (1 + (du / 2) * (1 + (du / 3) * (1 + du / 4)));
           const found = ((pressurePa * previousScale) / scale) * growth;
+          // What evaluate() would record at the new pressure, computed as it does (not
+          // position + du, which differs in the last bits): a cell's cached position and water
+          // stay functions of its pressure and curve alone, so a run restored from a snapshot
+          // repeats the uninterrupted run to the bit.
+          const foundPosition = (Math.log(-found * scale) - logStart) * inverseStep;
+          let foundSaturation = tableSaturation[lastNode] as number;
+          if (foundPosition < lastNode) {
+            const foundNode = foundPosition > 0 ? Math.floor(foundPosition) : 0;
+            const low = tableSaturation[foundNode] as number;
+            foundSaturation =
+              low +
+              (foundPosition - foundNode) * ((tableSaturation[foundNode + 1] as number) - low);
+          }
           evaluatedPressure[cell] = found;
           evaluatedScale[cell] = scale;
           evaluatedStorage[cell] = storageCoefficient;
-          evaluatedPosition[cell] = position + du * inverseStep;
-          evaluatedWater[cell] = target;
+          evaluatedPosition[cell] = foundPosition;
+          evaluatedWater[cell] =
+            porosity * foundSaturation +
+            storageCoefficient * airEntryRef * (inverseScale[cell] as number);
           return found;
         }
       }
@@ -394,7 +428,18 @@ export function createPoreHydraulics(options: PoreHydraulicsOptions): PoreHydrau
     },
     equivalentPorePressurePa(cell, pressurePa) {
       const scale = pressureScale[cell] as number;
-      return equivalentPressure.fromLiquidPressure(pressurePa * scale) / scale;
+      const reference = pressurePa * scale;
+      if (!(reference < airEntryRef))
+        return equivalentPressure.fromLiquidPressure(reference) / scale;
+      // The figures ask at the pressures the last evaluation saw: its table position is kept.
+      const position =
+        evaluatedPressure[cell] === pressurePa && evaluatedScale[cell] === scale
+          ? (evaluatedPosition[cell] as number)
+          : (Math.log(-reference) - logStart) * inverseStep;
+      if (!(position < lastNode)) return equivalentPressure.fromLiquidPressure(reference) / scale;
+      const node = position > 0 ? Math.floor(position) : 0;
+      const below = equivalentAtNode(node);
+      return (below + (position - node) * (equivalentAtNode(node + 1) - below)) / scale;
     },
     evaluate(pressurePa, water, capacityPerPa, conductivity, storageContent, conductivitySlope) {
       const wantStorage = storageContent !== undefined;
