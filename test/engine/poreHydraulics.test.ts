@@ -52,7 +52,6 @@ describe('createPoreHydraulics()', () => {
           hydraulics.specificStoragePerPa.fill(1e-9);
           const pressures = Float64Array.from([-(10 ** logSuction), -1e4, -1e5]);
           const scratch = () => new Float64Array(3);
-          // The fast path needs the cell's table position from the last evaluate().
           if (evaluatedFirst) hydraulics.evaluate(pressures, scratch(), scratch(), scratch());
           const pressure = pressures[0] as number;
           const water = hydraulics.waterContentAt(0, pressure);
@@ -145,6 +144,36 @@ describe('createPoreHydraulics()', () => {
         -0.5 * airEntrySuction,
       );
     }
+  });
+
+  it('waterContents() gives the water and storage of evaluate() to the bit (property)', () => {
+    fc.assert(
+      fc.property(
+        fc.array(fc.double({ min: 2, max: 9.5, noNaN: true }), { minLength: 3, maxLength: 3 }),
+        fc.double({ min: 0.2, max: 1, noNaN: true }),
+        (logSuctions, scale) => {
+          const hydraulics = make();
+          hydraulics.specificStoragePerPa.fill(1e-9);
+          hydraulics.diameterScale[1] = scale;
+          hydraulics.refreshScale();
+          const pressures = Float64Array.from(logSuctions, (logSuction) => -(10 ** logSuction));
+          const columns = () => Array.from({ length: 5 }, () => new Float64Array(3));
+          const [water, capacity, conductivity, storage, alone] = columns() as Float64Array[];
+          const aloneStorage = new Float64Array(3);
+          hydraulics.evaluate(
+            pressures,
+            water as Float64Array,
+            capacity as Float64Array,
+            conductivity as Float64Array,
+            storage,
+          );
+          hydraulics.waterContents(pressures, alone as Float64Array, aloneStorage);
+          expect(Array.from(alone as Float64Array)).toEqual(Array.from(water as Float64Array));
+          expect(Array.from(aloneStorage)).toEqual(Array.from(storage as Float64Array));
+        },
+      ),
+      { numRuns: 200 },
+    );
   });
 
   it('refined pores (diameters halved) need twice the suction for the same saturation', () => {

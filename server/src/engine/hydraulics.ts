@@ -24,4 +24,15 @@ export interface CellHydraulics {
     storageContent?: Float64Array,
     conductivitySlope?: Float64Array,
   ): boolean;
+  /**
+   * Optional: fills only the water content (and, when `storageContent` is given, the part the
+   * specific storage holds) of every cell, with the same bits `evaluate()` gives for them. The
+   * solver's convergence check needs nothing else, so an implementation that can skip the
+   * conductivity, capacity and slope offers this.
+   */
+  waterContents?(
+    pressurePa: Float64Array,
+    waterContent: Float64Array,
+    storageContent?: Float64Array,
+  ): void;
 }

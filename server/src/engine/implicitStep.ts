@@ -184,17 +184,25 @@ export function implicitStep(
 
   let surfaceInflowM = 0;
   let pendingCheck = false;
+  // The convergence check needs only the water content; the coefficients are computed after it
+  // only when the step goes on (hydraulics that offer waterContents()).
+  const waterOnly = hydraulics.waterContents !== undefined;
   for (let iteration = 1; iteration <= maxIterations + 1; iteration += 1) {
+    const checkFirst = pendingCheck && waterOnly;
     if (iteration > 1) {
-      analyticSlope =
-        hydraulics.evaluate(
-          iterate,
-          water,
-          capacity,
-          conductivity,
-          pendingCheck ? storage : undefined,
-          newton ? conductivitySlope : undefined,
-        ) === true;
+      if (checkFirst) {
+        (hydraulics as Required<CellHydraulics>).waterContents(iterate, water, storage);
+      } else {
+        analyticSlope =
+          hydraulics.evaluate(
+            iterate,
+            water,
+            capacity,
+            conductivity,
+            pendingCheck ? storage : undefined,
+            newton ? conductivitySlope : undefined,
+          ) === true;
+      }
     }
     if (pendingCheck) {
       let waterChangeM = 0;
@@ -219,6 +227,17 @@ export function implicitStep(
           waterChangeM,
           massDefectM,
         };
+      }
+      if (checkFirst) {
+        analyticSlope =
+          hydraulics.evaluate(
+            iterate,
+            water,
+            capacity,
+            conductivity,
+            undefined,
+            newton ? conductivitySlope : undefined,
+          ) === true;
       }
     }
     if (iteration > maxIterations) break;

@@ -20,7 +20,8 @@ import {
 } from '../physics/capillaryBundlePermeability.ts';
 import { GAS_CONSTANT_J_PER_MOL_K, WATER_MOLAR_MASS_KG_PER_MOL } from '../physics/units.ts';
 import type { CellHydraulics } from './hydraulics.ts';
-import { buildHydraulicTable } from './_hydraulicTable.ts';
+import { buildHydraulicTable, valueAtFirstNode } from './_hydraulicTable.ts';
+import { exp2Linear, log2Linear, log2LinearSlopeFactor } from './_log2Linear.ts';
 import {
   waterPropertiesAt,
   type WaterProperties as WaterPropertyValues,
@@ -96,11 +97,10 @@ export interface PoreHydraulics extends CellHydraulics {
   /**
    * Liquid pressure (Pa) at which cell i holds water content theta after its curve changed
    * (temperature, refinement, storage), from its pressure `pressurePa` under the pressure scale
-   * `previousScale` it had before: the same answer as {@link pressureForWaterContent}, without its
-   * logarithm, exponential and search when the last `evaluate()` saw the cell at that pressure
-   * and scale (its table position is kept): the saturation moves along the same table segment,
-   * p' = p (c_old / c_new) exp(du), with exp of the small du from its Taylor series (exact to
-   * rounding for |du| < 1e-3). Otherwise it falls back to {@link pressureForWaterContent}.
+   * `previousScale` it had before: the same answer as {@link pressureForWaterContent} (to
+   * rounding), without its search when the new saturation lies on the table segment the cell was
+   * on (a change of a few per mil moves it little): the position on that segment, then the
+   * pressure there. Otherwise it falls back to {@link pressureForWaterContent}.
    */
   pressureKeepingWater(
     cell: number,
@@ -121,6 +121,12 @@ export interface PoreHydraulics extends CellHydraulics {
     storages: Float64Array,
     water: Float64Array,
     pressures: Float64Array,
+  ): void;
+  /** The water content (and storage) alone, as evaluate() gives them (see CellHydraulics). */
+  waterContents(
+    pressurePa: Float64Array,
+    waterContent: Float64Array,
+    storageContent?: Float64Array,
   ): void;
   /** Equivalent pore pressure pi of cell i at liquid pressure p, Pa (Coussy 2004). */
   equivalentPorePressurePa(cell: number, pressurePa: number): number;
@@ -162,9 +168,11 @@ export function createPoreHydraulics(options: PoreHydraulicsOptions): PoreHydrau
   const tablePermeability = table.permeabilityM2;
   const lastNode = table.nodeCount - 1;
   const porosity = options.porosity;
+  const inversePorosity = 1 / porosity;
   const saturatedPermeability = table.saturatedPermeabilityM2;
-  const logStart = table.logSuctionStart;
+  const coordinateStart = table.coordinateStart;
   const inverseStep = table.inverseStep;
+  const step = 1 / inverseStep;
   // pi at the saturation table's nodes, filled the first time a look-up needs them (a whole
   // table would cost 0.4 ms per model): linear in u = ln(suction) between nodes, within 1e-6 of
   // the curve (test/engine/poreHydraulics.test.ts), like the saturation it is read beside.
@@ -174,8 +182,14 @@ export function createPoreHydraulics(options: PoreHydraulicsOptions): PoreHydrau
     if (Number.isNaN(value)) {
       value =
         node === 0
-          ? retention.airEntryPressurePa
-          : equivalentPressure.fromLiquidPressure(-Math.exp(logStart + node / inverseStep));
+          ? valueAtFirstNode(
+              table.airEntryPosition,
+              retention.airEntryPressurePa,
+              equivalentAtNode(1),
+            )
+          : equivalentPressure.fromLiquidPressure(
+              -exp2Linear(coordinateStart + node / inverseStep),
+            );
       equivalentNodes[node] = value;
     }
     return value;
@@ -184,7 +198,7 @@ export function createPoreHydraulics(options: PoreHydraulicsOptions): PoreHydrau
   let lookupSaturation = 1;
   /** Interpolates the saturation table at a reference pressure below the air entry. */
   const lookup = (referencePa: number): void => {
-    const position = (Math.log(-referencePa) - logStart) * inverseStep;
+    const position = (log2Linear(-referencePa) - coordinateStart) * inverseStep;
     if (position >= lastNode) {
       lookupSaturation = tableSaturation[lastNode] as number;
       return;
@@ -210,14 +224,6 @@ export function createPoreHydraulics(options: PoreHydraulicsOptions): PoreHydrau
   const vapourFactor = new Float64Array(n); // (D/tau) phi p_sat M / (R T rho_w A)
   const inverseKelvin = new Float64Array(n); // 1 / A
   const airEntryRef = retention.airEntryPressurePa;
-  // What the last evaluate() saw in each unsaturated cell: its pressure, scale, storage
-  // coefficient, table position and water content (NaN pressure for saturated cells), for
-  // pressureKeepingWater() and waterContentAt(); pressureKeepingWater() records its answers too.
-  const evaluatedPressure = new Float64Array(n).fill(Number.NaN);
-  const evaluatedScale = new Float64Array(n);
-  const evaluatedStorage = new Float64Array(n);
-  const evaluatedPosition = new Float64Array(n);
-  const evaluatedWater = new Float64Array(n);
 
   const refreshScale = (): void => {
     for (let i = 0; i < n; i += 1) {
@@ -272,17 +278,9 @@ export function createPoreHydraulics(options: PoreHydraulicsOptions): PoreHydrau
   refreshTemperature();
 
   const waterContent = (cell: number, pressurePa: number): number => {
-    const scale = pressureScale[cell] as number;
-    const reference = pressurePa * scale;
+    const reference = pressurePa * (pressureScale[cell] as number);
     const storageCoefficient = specificStoragePerPa[cell] as number;
     if (reference >= airEntryRef) return porosity + storageCoefficient * pressurePa;
-    if (
-      evaluatedPressure[cell] === pressurePa &&
-      evaluatedScale[cell] === scale &&
-      evaluatedStorage[cell] === storageCoefficient
-    ) {
-      return evaluatedWater[cell] as number; // the same numbers, computed by the last evaluate()
-    }
     lookup(reference);
     // The same expression as evaluate(), so both give the same bits.
     return (
@@ -305,7 +303,7 @@ export function createPoreHydraulics(options: PoreHydraulicsOptions): PoreHydrau
     const saturation = (target - (storageCoefficient * airEntryRef) / scale) / porosity;
     if (!(saturation > (tableSaturation[lastNode] as number))) {
       // At or below the driest tabulated saturation the curve is flat: keep a guess beyond it.
-      const driestPa = -Math.exp(logStart + lastNode / inverseStep) / scale;
+      const driestPa = -exp2Linear(coordinateStart + lastNode / inverseStep) / scale;
       return guessPa < driestPa ? guessPa : driestPa;
     }
     let low = 0; // tableSaturation[low] >= saturation
@@ -314,7 +312,7 @@ export function createPoreHydraulics(options: PoreHydraulicsOptions): PoreHydrau
     // little: the segment of the guess holds the answer most of the time, without the search.
     const guessReference = guessPa * scale;
     if (guessReference < airEntryRef) {
-      const position = (Math.log(-guessReference) - logStart) * inverseStep;
+      const position = (log2Linear(-guessReference) - coordinateStart) * inverseStep;
       const node = position > 0 ? Math.floor(position) : 0;
       if (
         node < lastNode &&
@@ -333,7 +331,7 @@ export function createPoreHydraulics(options: PoreHydraulicsOptions): PoreHydrau
     const s0 = tableSaturation[low] as number;
     const s1 = tableSaturation[low + 1] as number;
     const weight = s1 === s0 ? 0 : (saturation - s0) / (s1 - s0);
-    return -Math.exp(logStart + (low + weight) / inverseStep) / scale;
+    return -exp2Linear(coordinateStart + (low + weight) / inverseStep) / scale;
   };
 
   const keepWater = (
@@ -342,48 +340,25 @@ export function createPoreHydraulics(options: PoreHydraulicsOptions): PoreHydrau
     pressurePa: number,
     previousScale: number,
   ): number => {
-    const scale = pressureScale[cell] as number;
-    const position = evaluatedPosition[cell] as number;
-    if (
-      evaluatedPressure[cell] === pressurePa &&
-      evaluatedScale[cell] === previousScale &&
-      position < lastNode
-    ) {
-      const storageCoefficient = specificStoragePerPa[cell] as number;
-      const saturation = (target - (storageCoefficient * airEntryRef) / scale) / porosity;
-      const node = position > 0 ? Math.floor(position) : 0;
-      const s0 = tableSaturation[node] as number;
-      const s1 = tableSaturation[node + 1] as number;
-      if (s1 < s0 && saturation <= s0 && saturation > s1) {
-        const du = (node + (saturation - s0) / (s1 - s0) - position) / inverseStep;
-        if (du > -1e-3 && du < 1e-3) {
-          const growth = 1 + du * (1 + (du / 2) * (1 + (du / 3) * (1 + du / 4)));
-          const found = ((pressurePa * previousScale) / scale) * growth;
-          // What evaluate() would record at the new pressure, computed as it does (not
-          // position + du, which differs in the last bits): a cell's cached position and water
-          // stay functions of its pressure and curve alone, so a run restored from a snapshot
-          // repeats the uninterrupted run to the bit.
-          const foundPosition = (Math.log(-found * scale) - logStart) * inverseStep;
-          let foundSaturation = tableSaturation[lastNode] as number;
-          if (foundPosition < lastNode) {
-            const foundNode = foundPosition > 0 ? Math.floor(foundPosition) : 0;
-            const low = tableSaturation[foundNode] as number;
-            foundSaturation =
-              low +
-              (foundPosition - foundNode) * ((tableSaturation[foundNode + 1] as number) - low);
-          }
-          evaluatedPressure[cell] = found;
-          evaluatedScale[cell] = scale;
-          evaluatedStorage[cell] = storageCoefficient;
-          evaluatedPosition[cell] = foundPosition;
-          evaluatedWater[cell] =
-            porosity * foundSaturation +
-            storageCoefficient * airEntryRef * (inverseScale[cell] as number);
-          return found;
+    const inverseScaleOfCell = inverseScale[cell] as number;
+    const previousReference = pressurePa * previousScale;
+    if (previousReference < airEntryRef) {
+      const position = (log2Linear(-previousReference) - coordinateStart) * inverseStep;
+      if (position < lastNode) {
+        const storedWater =
+          (specificStoragePerPa[cell] as number) * airEntryRef * inverseScaleOfCell;
+        const saturation = (target - storedWater) * inversePorosity;
+        const node = position > 0 ? Math.floor(position) : 0;
+        const s0 = tableSaturation[node] as number;
+        const s1 = tableSaturation[node + 1] as number;
+        if (s1 < s0 && saturation <= s0 && saturation > s1) {
+          // The position on the same segment that holds the saturation, and its pressure.
+          const newPosition = node + (saturation - s0) / (s1 - s0);
+          return -exp2Linear(coordinateStart + newPosition * step) * inverseScaleOfCell;
         }
       }
     }
-    return pressureForWaterContent(cell, target, (pressurePa * previousScale) / scale);
+    return pressureForWaterContent(cell, target, pressurePa * previousScale * inverseScaleOfCell);
   };
 
   return {
@@ -431,15 +406,38 @@ export function createPoreHydraulics(options: PoreHydraulicsOptions): PoreHydrau
       const reference = pressurePa * scale;
       if (!(reference < airEntryRef))
         return equivalentPressure.fromLiquidPressure(reference) / scale;
-      // The figures ask at the pressures the last evaluation saw: its table position is kept.
-      const position =
-        evaluatedPressure[cell] === pressurePa && evaluatedScale[cell] === scale
-          ? (evaluatedPosition[cell] as number)
-          : (Math.log(-reference) - logStart) * inverseStep;
+      const position = (log2Linear(-reference) - coordinateStart) * inverseStep;
       if (!(position < lastNode)) return equivalentPressure.fromLiquidPressure(reference) / scale;
       const node = position > 0 ? Math.floor(position) : 0;
       const below = equivalentAtNode(node);
       return (below + (position - node) * (equivalentAtNode(node + 1) - below)) / scale;
+    },
+    waterContents(pressurePa, water, storageContent) {
+      // evaluate()'s water content and storage, term for term (the same bits), alone.
+      const wantStorage = storageContent !== undefined;
+      for (let i = 0; i < n; i += 1) {
+        const pressure = pressurePa[i] as number;
+        const scale = pressureScale[i] as number;
+        const storageCoefficient = specificStoragePerPa[i] as number;
+        if (pressure * scale >= airEntryRef) {
+          const stored = storageCoefficient * pressure;
+          water[i] = porosity + stored;
+          if (wantStorage) storageContent[i] = stored;
+          continue;
+        }
+        const position = (log2Linear(-pressure * scale) - coordinateStart) * inverseStep;
+        let s: number;
+        if (position >= lastNode) {
+          s = tableSaturation[lastNode] as number;
+        } else {
+          const node = position > 0 ? Math.floor(position) : 0;
+          const s0 = tableSaturation[node] as number;
+          s = s0 + (position - node) * ((tableSaturation[node + 1] as number) - s0);
+        }
+        const stored = storageCoefficient * airEntryRef * (inverseScale[i] as number);
+        water[i] = porosity * s + stored;
+        if (wantStorage) storageContent[i] = stored;
+      }
     },
     evaluate(pressurePa, water, capacityPerPa, conductivity, storageContent, conductivitySlope) {
       const wantStorage = storageContent !== undefined;
@@ -456,27 +454,16 @@ export function createPoreHydraulics(options: PoreHydraulicsOptions): PoreHydrau
           if (wantStorage) storageContent[i] = stored;
           conductivity[i] = saturatedPermeability * liquid;
           if (wantSlope) conductivitySlope[i] = 0;
-          evaluatedPressure[i] = Number.NaN;
           continue;
         }
         // The table look-up of `lookup`, inlined with locals: this loop runs for every cell in
-        // every iteration. The first evaluation of a step meets each cell at the pressure and
-        // scale the last one (or a remap, pressureKeepingWater) left it at: its position is kept,
-        // without the logarithm.
-        let position: number;
-        if (evaluatedPressure[i] === pressure && evaluatedScale[i] === scale) {
-          position = evaluatedPosition[i] as number;
-        } else {
-          position = (Math.log(-pressure * scale) - logStart) * inverseStep;
-          evaluatedPressure[i] = pressure;
-          evaluatedScale[i] = scale;
-          evaluatedPosition[i] = position;
-        }
-        evaluatedStorage[i] = storageCoefficient;
+        // every iteration.
+        const coordinate = log2Linear(-pressure * scale);
+        const position = (coordinate - coordinateStart) * inverseStep;
         let s: number;
         let permeabilityM2: number;
-        let saturationPerU: number; // dS/du
-        let permeabilityPerU: number; // dk/du
+        let saturationPerU: number; // dS/dv
+        let permeabilityPerU: number; // dk/dv
         if (position >= lastNode) {
           s = tableSaturation[lastNode] as number;
           permeabilityM2 = tablePermeability[lastNode] as number;
@@ -494,25 +481,32 @@ export function createPoreHydraulics(options: PoreHydraulicsOptions): PoreHydrau
           permeabilityM2 = k0 + weight * (k1 - k0);
           permeabilityPerU = (k1 - k0) * inverseStep;
         }
-        // d/dp = (d/du) / p with u = ln(-p c); dS/dp > 0 as dS/du < 0 and p < 0.
-        const inversePressure = 1 / pressure;
-        const saturationSlope = saturationPerU * inversePressure;
+        // d/dp = (d/dv) m / p with v = log2Linear(-p c) and m = dv / d ln(-p c) (_log2Linear.ts);
+        // dS/dp > 0 as dS/dv < 0 and p < 0.
+        const coordinatePerPa = log2LinearSlopeFactor(coordinate) / pressure;
+        const saturationSlope = saturationPerU * coordinatePerPa;
         capacityPerPa[i] = porosity * saturationSlope;
         const stored = storageCoefficient * airEntryRef * (inverseScale[i] as number);
         const content = porosity * s + stored;
         water[i] = content;
-        evaluatedWater[i] = content;
         if (wantStorage) storageContent[i] = stored;
-        // Kelvin h = exp(p / A) inline (p < 0 here): below about 135 kPa of suction |p / A| <
-        // 1e-3 and four terms of the series are exact to rounding (error x^5 / 120 < 1e-16).
+        // Kelvin h = exp(p / A) inline (p < 0 here): below about 6.7 MPa of suction (h > 0.95)
+        // |p / A| < 0.05 and the series to x^7 is exact to rounding (error x^8 / 8! < 1e-15).
         const inverseA = inverseKelvin[i] as number;
         const x = pressure * inverseA;
-        const humidity = x > -1e-3 ? 1 + x * (1 + x * (0.5 + x * (1 / 6 + x / 24))) : Math.exp(x);
+        const humidity =
+          x > -0.05
+            ? 1 +
+              x *
+                (1 +
+                  x *
+                    (1 / 2 + x * (1 / 6 + x * (1 / 24 + x * (1 / 120 + x * (1 / 720 + x / 5040))))))
+            : Math.exp(x);
         const vapour = vapourFactor[i] as number;
         conductivity[i] = permeabilityM2 * liquid + vapour * (1 - s) * humidity;
         if (wantSlope) {
           conductivitySlope[i] =
-            permeabilityPerU * liquid * inversePressure +
+            permeabilityPerU * liquid * coordinatePerPa +
             vapour * humidity * ((1 - s) * inverseA - saturationSlope);
         }
       }
