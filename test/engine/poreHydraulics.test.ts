@@ -176,6 +176,42 @@ describe('createPoreHydraulics()', () => {
     );
   });
 
+  it("setTemperaturesKeepingWater() keeps each cell's water and leaves the curves of refreshTemperature() (property)", () => {
+    fc.assert(
+      fc.property(
+        fc.array(fc.double({ min: 3.7, max: 8.5, noNaN: true }), { minLength: 3, maxLength: 3 }),
+        fc.array(fc.double({ min: 275, max: 330, noNaN: true }), { minLength: 3, maxLength: 3 }),
+        (logSuctions, temperatures) => {
+          const hydraulics = make();
+          hydraulics.specificStoragePerPa.fill(1e-9);
+          const pressures = Float64Array.from(logSuctions, (logSuction) => -(10 ** logSuction));
+          const before = Array.from(pressures, (pressure, cell) =>
+            hydraulics.waterContentAt(cell, pressure),
+          );
+          const changed = hydraulics.setTemperaturesKeepingWater(
+            Float64Array.from(temperatures),
+            pressures,
+          );
+          expect(changed).toBe(true);
+          const reference = make();
+          reference.temperatureK.set(temperatures);
+          reference.refreshTemperature();
+          pressures.forEach((pressure, cell) => {
+            expect(
+              Math.abs(hydraulics.waterContentAt(cell, pressure) - (before[cell] as number)),
+            ).toBeLessThan(1e-14);
+            expect(hydraulics.pressureScale[cell]).toBe(reference.pressureScale[cell]);
+            expect(hydraulics.inverseKelvinPerPa[cell]).toBe(reference.inverseKelvinPerPa[cell]);
+          });
+          expect(
+            hydraulics.setTemperaturesKeepingWater(Float64Array.from(temperatures), pressures),
+          ).toBe(false);
+        },
+      ),
+      { numRuns: 100 },
+    );
+  });
+
   it('refined pores (diameters halved) need twice the suction for the same saturation', () => {
     const hydraulics = make();
     hydraulics.diameterScale[2] = 0.5;

@@ -47,17 +47,27 @@ type Mix = NonNullable<ElementModel['material']['mix']>;
 /**
  * The laws the profiles evaluate for every cell at its equivalent age (in-place tensile and
  * compressive strength, Pa; degree of hydration), tabulated once per mix in ln(age)
- * (_ageTable.ts, within a few 1e-6 of the laws): evaluating them for every cell of every figure
+ * (_ageTable.ts, within about 1e-5 of the laws): evaluating them for every cell of every figure
  * cost about half of the figures.
  */
 const lawsOfMix = new WeakMap<Mix, AgeTable>();
 function lawsAtAge(mix: Mix): AgeTable {
   let table = lawsOfMix.get(mix);
   if (table === undefined) {
+    // The table fills a node by calling each law at its age in turn: both strengths come from
+    // one evaluation of the law.
+    let strengthAgeS = Number.NaN;
+    let strength = inPlaceStrength(Number.NaN, mix.strength, mix.setting);
+    const strengthAt = (ageS: number) => {
+      if (ageS !== strengthAgeS) {
+        strengthAgeS = ageS;
+        strength = inPlaceStrength(ageS / DAY_S, mix.strength, mix.setting);
+      }
+      return strength;
+    };
     table = createAgeTable([
-      (ageS) => inPlaceStrength(ageS / DAY_S, mix.strength, mix.setting).tensileStrengthMPa * 1e6,
-      (ageS) =>
-        inPlaceStrength(ageS / DAY_S, mix.strength, mix.setting).compressiveStrengthMPa * 1e6,
+      (ageS) => strengthAt(ageS).tensileStrengthMPa * 1e6,
+      (ageS) => strengthAt(ageS).compressiveStrengthMPa * 1e6,
       (ageS) => schindlerFolliardDegreeOfHydration(ageS, mix.hydration),
     ]);
     lawsOfMix.set(mix, table);

@@ -128,6 +128,14 @@ export interface PoreHydraulics extends CellHydraulics {
     waterContent: Float64Array,
     storageContent?: Float64Array,
   ): void;
+  /**
+   * Takes the cell temperatures `temperatures` (K) and moves `pressures` (Pa, read and written)
+   * so every cell whose temperature changed keeps its water content: writing `temperatureK`,
+   * `refreshTemperature()` and {@link pressureKeepingWater} for those cells in one pass (the
+   * element model does it when the weather changes the temperatures). Returns whether any cell
+   * changed.
+   */
+  setTemperaturesKeepingWater(temperatures: Float64Array, pressures: Float64Array): boolean;
   /** Equivalent pore pressure pi of cell i at liquid pressure p, Pa (Coussy 2004). */
   equivalentPorePressurePa(cell: number, pressurePa: number): number;
   /** Air-entry pressure of cell i, Pa (< 0). */
@@ -248,31 +256,33 @@ export function createPoreHydraulics(options: PoreHydraulicsOptions): PoreHydrau
     kelvinCoefficientPa: 0,
     saturationVapourPressurePa: 0,
   };
-  const refreshTemperature = (): void => {
-    for (let i = 0; i < n; i += 1) {
-      const temperature = temperatureK[i] as number;
-      if (temperature === computedForK[i]) continue;
-      computedForK[i] = temperature;
-      if (i > 0 && temperature === computedForK[i - 1]) {
-        tensionRatio[i] = tensionRatio[i - 1] as number;
-        inverseViscosity[i] = inverseViscosity[i - 1] as number;
-        inverseKelvin[i] = inverseKelvin[i - 1] as number;
-        vapourFactor[i] = vapourFactor[i - 1] as number;
-        continue;
-      }
-      waterPropertiesAt(temperature, water);
-      const kelvinPa = water.kelvinCoefficientPa;
-      tensionRatio[i] = referenceTension / water.surfaceTensionNPerM;
-      inverseViscosity[i] = 1 / water.viscosityPaS;
-      inverseKelvin[i] = 1 / kelvinPa;
-      vapourFactor[i] = vapourOn
-        ? ((airDiffusivity / options.tortuosity) *
-            options.porosity *
-            water.saturationVapourPressurePa *
-            WATER_MOLAR_MASS_KG_PER_MOL) /
-          (GAS_CONSTANT_J_PER_MOL_K * temperature * liquidDensity * kelvinPa)
-        : 0;
+  /** The temperature-dependent coefficients of cell i for temperatureK[i] (cells in order). */
+  const applyCellTemperature = (i: number): void => {
+    const temperature = temperatureK[i] as number;
+    if (temperature === computedForK[i]) return;
+    computedForK[i] = temperature;
+    if (i > 0 && temperature === computedForK[i - 1]) {
+      tensionRatio[i] = tensionRatio[i - 1] as number;
+      inverseViscosity[i] = inverseViscosity[i - 1] as number;
+      inverseKelvin[i] = inverseKelvin[i - 1] as number;
+      vapourFactor[i] = vapourFactor[i - 1] as number;
+      return;
     }
+    waterPropertiesAt(temperature, water);
+    const kelvinPa = water.kelvinCoefficientPa;
+    tensionRatio[i] = referenceTension / water.surfaceTensionNPerM;
+    inverseViscosity[i] = 1 / water.viscosityPaS;
+    inverseKelvin[i] = 1 / kelvinPa;
+    vapourFactor[i] = vapourOn
+      ? ((airDiffusivity / options.tortuosity) *
+          options.porosity *
+          water.saturationVapourPressurePa *
+          WATER_MOLAR_MASS_KG_PER_MOL) /
+        (GAS_CONSTANT_J_PER_MOL_K * temperature * liquidDensity * kelvinPa)
+      : 0;
+  };
+  const refreshTemperature = (): void => {
+    for (let i = 0; i < n; i += 1) applyCellTemperature(i);
     refreshScale();
   };
   refreshTemperature();
@@ -387,6 +397,26 @@ export function createPoreHydraulics(options: PoreHydraulicsOptions): PoreHydrau
     },
     pressureForWaterContent,
     pressureKeepingWater: keepWater,
+    setTemperaturesKeepingWater(temperatures, pressures) {
+      let changed = false;
+      for (let i = 0; i < n; i += 1) {
+        const temperature = temperatures[i] as number;
+        if (temperature === temperatureK[i]) continue;
+        changed = true;
+        const pressure = pressures[i] as number;
+        const held = waterContent(i, pressure);
+        const previousScale = pressureScale[i] as number;
+        temperatureK[i] = temperature;
+        applyCellTemperature(i);
+        const scale = diameterScale[i] as number;
+        const pressureScaleOfCell = scale * (tensionRatio[i] as number);
+        pressureScale[i] = pressureScaleOfCell;
+        inverseScale[i] = 1 / pressureScaleOfCell;
+        liquidFactor[i] = scale * scale * multiplier * (inverseViscosity[i] as number);
+        pressures[i] = keepWater(i, held, pressure, previousScale);
+      }
+      return changed;
+    },
     rescaleKeepingWater(marks, scales, storages, water, pressures) {
       for (let i = 0; i < n; i += 1) {
         if (marks[i] === 0) continue;
