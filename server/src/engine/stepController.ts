@@ -37,6 +37,26 @@ export interface StepControlOptions extends ImplicitStepOptions {
   timeOriginS?: number;
 }
 
+/**
+ * A caller's own limits on the steps, besides convergence (the element model's bleed film: a step
+ * that holds the surface saturated may not draw more water than the film holds).
+ */
+export interface StepCheck {
+  /**
+   * Longest step the caller allows from the current state, s; asked before each new step
+   * (not before a retry). Infinity: no limit. A step shortened by it keeps the controller's plan.
+   */
+  longestStepS(timeS: number): number;
+  /**
+   * After a converged trial of `stepS` seconds: Infinity accepts it; a finite length, s, refuses
+   * it and asks for a retry of that length from the same state (with the surface condition asked
+   * for again; longer than `stepS` too, but not past the target). A refusal does not count as a
+   * convergence failure, and the retry may be shorter than `minStepS`, which bounds only the cuts
+   * after failed convergence.
+   */
+  retryStepS(stepS: number, result: StepResult): number;
+}
+
 /** The transport part of an element's state: plain numbers and typed arrays only. */
 export interface TransportState {
   /** Model time, s since placement. */
@@ -74,6 +94,9 @@ export class EngineConvergenceError extends Error {
  * after every accepted step with the step length, before the next one is tried (the element
  * model updates hydration, temperature and pore refinement there).
  *
+ * `check`, when given, may shorten a step before it is tried and refuse a converged trial with a
+ * shorter retry ({@link StepCheck}); the surface condition is asked for again for the retry.
+ *
  * Throws {@link EngineConvergenceError} only when a step fails at `minStepS`. A target at or
  * before the current time does nothing.
  */
@@ -86,6 +109,7 @@ export function advanceTransport(
   surfaceAt: (timeS: number) => SurfaceCondition,
   options: StepControlOptions = {},
   onStep?: (stepS: number, result: StepResult) => void,
+  check?: StepCheck,
 ): void {
   const minStepS = options.minStepS ?? 1e-3;
   const maxStepS = options.maxStepS ?? 900;
@@ -96,15 +120,23 @@ export function advanceTransport(
   const elapsedFraction = options.maxStepFractionOfElapsed ?? Number.POSITIVE_INFINITY;
   const timeOriginS = options.timeOriginS ?? 0;
   const next = new Float64Array(grid.cellCount);
+  // A retry the check asked for (NaN: none): same start, shorter step.
+  let retryS = Number.NaN;
   while (state.timeS < targetTimeS) {
     const remaining = targetTimeS - state.timeS;
     const elapsedLimitS = Number.isFinite(elapsedFraction)
       ? Math.max(minStepS, elapsedFraction * (state.timeS - timeOriginS))
       : Number.POSITIVE_INFINITY;
     const plannedS = Math.min(state.nextStepS, maxStepS, elapsedLimitS);
-    // Avoid leaving a sliver shorter than a tenth of a step before the target.
-    const stepS =
-      plannedS >= remaining || remaining - plannedS < 0.1 * plannedS ? remaining : plannedS;
+    let stepS: number;
+    if (retryS > 0) {
+      stepS = Math.min(retryS, remaining);
+    } else {
+      const limitedS = Math.min(plannedS, check?.longestStepS(state.timeS) ?? plannedS);
+      // Avoid leaving a sliver shorter than a tenth of a step before the target.
+      stepS = limitedS >= remaining || remaining - limitedS < 0.1 * limitedS ? remaining : limitedS;
+    }
+    retryS = Number.NaN;
     const endS = state.timeS + stepS;
     const surface = surfaceAt(endS);
     let result = implicitStep(
@@ -131,6 +163,15 @@ export function advanceTransport(
       state.nextStepS = stepS * cutFactor;
       if (!(state.nextStepS >= minStepS)) throw new EngineConvergenceError(state.timeS, stepS);
       continue;
+    }
+    if (check !== undefined) {
+      const askedS = check.retryStepS(stepS, result);
+      if (askedS !== Number.POSITIVE_INFINITY) {
+        // Not a convergence failure: the plan stays, only this step is tried again.
+        if (!(askedS > 0)) throw new RangeError(`step check asked for a retry of ${askedS} s`);
+        retryS = askedS;
+        continue;
+      }
     }
     state.pressurePa.set(next);
     state.timeS = stepS === remaining ? targetTimeS : endS;
