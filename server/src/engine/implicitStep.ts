@@ -6,11 +6,11 @@
  * on a cell-centred grid, solved with the modified Picard iteration of Celia, Bouloutas and
  * Zarba (1990), Water Resources Research 26(7), 1483-1496: the water content at the new level is
  * expanded as theta(p^{m+1}) = theta(p^m) + C^m (p^{m+1} - p^m), which conserves mass exactly at
- * convergence; K is lagged one iteration. Each iteration is one tridiagonal (Thomas) solve.
+ * convergence; K is lagged one iteration. Each iteration is one tridiagonal (Thomas) solve,
+ * eliminated as it is assembled (tridiagonal.ts holds the plain solver).
  */
 import type { DepthGrid } from './grid.ts';
 import type { CellHydraulics } from './hydraulics.ts';
-import { solveTridiagonal } from './tridiagonal.ts';
 
 /** The condition at the exposed surface during one step. */
 export type SurfaceCondition =
@@ -79,10 +79,6 @@ export interface StepWorkspace {
   capacity: Float64Array;
   conductivity: Float64Array;
   iterate: Float64Array;
-  lower: Float64Array;
-  diagonal: Float64Array;
-  upper: Float64Array;
-  rightHandSide: Float64Array;
   increment: Float64Array;
   scratch: Float64Array;
   perturbed: Float64Array;
@@ -107,10 +103,6 @@ export function createWorkspace(cellCount: number): StepWorkspace {
     capacity: make(),
     conductivity: make(),
     iterate: make(),
-    lower: make(),
-    diagonal: make(),
-    upper: make(),
-    rightHandSide: make(),
     increment: make(),
     scratch: make(),
     perturbed: make(),
@@ -156,7 +148,7 @@ export function implicitStep(
   const widths = grid.widthsM;
   const spacing = grid.centreSpacingM;
   const { waterOld, water, storageOld, storage, capacity, conductivity, iterate } = workspace;
-  const { lower, diagonal, upper, rightHandSide, increment, scratch } = workspace;
+  const { increment, scratch } = workspace;
 
   // The first iterate is the old pressure, so one evaluation serves both the old water content
   // and the first iteration's coefficients.
@@ -257,37 +249,7 @@ export function implicitStep(
       conductivitySlope.fill(0);
     }
 
-    // Assemble the linear system for the increment delta = p^{m+1} - p^m in one pass over the
-    // cells: face i (between cells i and i + 1) is added to cell i here and carried to cell
-    // i + 1. a_0 and c_{n-1} are never read by the solver, so they are not written.
-    let carriedDiagonal = 0;
-    let carriedRightHandSide = 0;
-    for (let i = 0; i < n; i += 1) {
-      const width = widths[i] as number;
-      let diagonalTerm = width * (capacity[i] as number) * inverseStepS + carriedDiagonal;
-      let rightHandSideTerm =
-        -(width * ((water[i] as number) - (waterOld[i] as number))) * inverseStepS +
-        carriedRightHandSide;
-      if (i < n - 1) {
-        const inverseSpacing = inverseSpacingPerM[i] as number;
-        const conductance =
-          0.5 * ((conductivity[i] as number) + (conductivity[i + 1] as number)) * inverseSpacing;
-        const difference = (iterate[i + 1] as number) - (iterate[i] as number);
-        const flow = conductance * difference;
-        // Newton terms: d(flow)/dp through the face conductivity (zero for Picard).
-        const lever = 0.5 * difference * inverseSpacing;
-        const slopeLeft = lever * (conductivitySlope[i] as number);
-        const slopeRight = lever * (conductivitySlope[i + 1] as number);
-        diagonalTerm += conductance - slopeLeft;
-        rightHandSideTerm += flow;
-        upper[i] = -conductance - slopeRight;
-        lower[i + 1] = -conductance + slopeLeft;
-        carriedDiagonal = conductance + slopeRight;
-        carriedRightHandSide = -flow;
-      }
-      diagonal[i] = diagonalTerm;
-      rightHandSide[i] = rightHandSideTerm;
-    }
+    // The surface condition first: it enters the first row of the system.
     const surfacePressure = iterate[0] as number;
     let inflowRate: number;
     let inflowSlope: number;
@@ -305,9 +267,51 @@ export function implicitStep(
       inflowRate = -outflow;
       inflowSlope = -slope;
     }
-    diagonal[0] = (diagonal[0] as number) - inflowSlope;
-    rightHandSide[0] = (rightHandSide[0] as number) + inflowRate;
-    solveTridiagonal(lower, diagonal, upper, rightHandSide, increment, scratch);
+    // Assemble the tridiagonal system for the increment delta = p^{m+1} - p^m and eliminate it
+    // (Thomas) in the same pass over the cells: row i is complete once face i (between cells i
+    // and i + 1) is added, and its forward elimination needs only row i - 1. Face i is added to
+    // cell i here and carried to cell i + 1. Back substitution follows.
+    let carriedDiagonal = -inflowSlope;
+    let carriedRightHandSide = inflowRate;
+    let lowerOfRow = 0; // a_i, coupling of row i to cell i - 1
+    let upperOverPivot = 0; // c_{i-1} / pivot_{i-1}
+    let eliminated = 0; // the forward-eliminated right-hand side of row i - 1
+    for (let i = 0; i < n; i += 1) {
+      const width = widths[i] as number;
+      let diagonalTerm = width * (capacity[i] as number) * inverseStepS + carriedDiagonal;
+      let rightHandSideTerm =
+        -(width * ((water[i] as number) - (waterOld[i] as number))) * inverseStepS +
+        carriedRightHandSide;
+      let upperTerm = 0;
+      let lowerOfNext = 0;
+      if (i < n - 1) {
+        const inverseSpacing = inverseSpacingPerM[i] as number;
+        const conductance =
+          0.5 * ((conductivity[i] as number) + (conductivity[i + 1] as number)) * inverseSpacing;
+        const difference = (iterate[i + 1] as number) - (iterate[i] as number);
+        const flow = conductance * difference;
+        // Newton terms: d(flow)/dp through the face conductivity (zero for Picard).
+        const lever = 0.5 * difference * inverseSpacing;
+        const slopeLeft = lever * (conductivitySlope[i] as number);
+        const slopeRight = lever * (conductivitySlope[i + 1] as number);
+        diagonalTerm += conductance - slopeLeft;
+        rightHandSideTerm += flow;
+        upperTerm = -conductance - slopeRight;
+        lowerOfNext = -conductance + slopeLeft;
+        carriedDiagonal = conductance + slopeRight;
+        carriedRightHandSide = -flow;
+      }
+      const inversePivot = 1 / (diagonalTerm - lowerOfRow * upperOverPivot);
+      eliminated = (rightHandSideTerm - lowerOfRow * eliminated) * inversePivot;
+      increment[i] = eliminated;
+      upperOverPivot = upperTerm * inversePivot;
+      scratch[i] = upperOverPivot;
+      lowerOfRow = lowerOfNext;
+    }
+    for (let i = n - 2; i >= 0; i -= 1) {
+      increment[i] =
+        (increment[i] as number) - (scratch[i] as number) * (increment[i + 1] as number);
+    }
     surfaceInflowM = stepS * (inflowRate + inflowSlope * (increment[0] as number));
 
     let small = true;
