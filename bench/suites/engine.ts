@@ -164,7 +164,6 @@ function transportStepNsPerCell(cellCount: number): { ns: number; iterations: nu
 const suite: BenchSuite = async () => {
   timedRun(60, 24, 2); // warm-up (JIT): two whole runs, so the timed runs meet optimised code
   const bareNsBefore = thomasNsPerCell(60);
-  const transport = transportStepNsPerCell(60);
   const reference = timedRun(60, 24, 21);
   const nsPerCellStep = (reference.ms * 1e6) / (reference.steps * 60);
   // Ensemble members share one model (and its filled look-up tables): every run after the first
@@ -172,6 +171,10 @@ const suite: BenchSuite = async () => {
   const sharedModel = createModel(60);
   const shared = timedRun(60, 24, 21, sharedModel);
   const sharedNsPerCellStep = (shared.ms * 1e6) / (shared.steps * 60);
+  // The isolated transport step comes last: its synthetic surface condition (a constant flux
+  // closure) makes the solver's call site polymorphic, and measured first it left the whole-model
+  // runs after it at 29 times the bare solve instead of 21 (V8 keeps the less specialised code).
+  const transport = transportStepNsPerCell(60);
   // The baseline is measured before and after the runs and the faster kept (see thomasNsPerCell).
   const bareNs = Math.min(bareNsBefore, thomasNsPerCell(60));
   const figures: BenchFigure[] = [
@@ -182,7 +185,7 @@ const suite: BenchSuite = async () => {
       baseline: bareNs,
       target: 'ratio <= 20',
       met: transport.ns / bareNs <= 20,
-      detail: `one backward-Euler step of 300 s at a drying front, 60 cells, ${transport.iterations} Newton iterations (each: one bulk property evaluation with analytic dK/dp, assembly, one Thomas solve) plus the final mass check; CPU time, best of 5 batches; load average ${loadavg()[0]?.toFixed(1)} on ${availableParallelism()} cores`,
+      detail: `one backward-Euler step of 300 s at a drying front, 60 cells, ${transport.iterations} Newton iterations (each: one bulk property evaluation with analytic dK/dp, and the system eliminated as it is assembled) plus the final mass check on the water content alone; CPU time, best of 5 batches; load average ${loadavg()[0]?.toFixed(1)} on ${availableParallelism()} cores`,
     }),
     ratioFigure({
       name: 'engine.costPerCellStepVsTridiagonal',
@@ -191,7 +194,7 @@ const suite: BenchSuite = async () => {
       baseline: bareNs,
       target: 'ratio <= 20',
       met: nsPerCellStep / bareNs <= 20,
-      detail: `whole model, CPU time, best of 21 (each run builds its model, so it includes filling the model's age and humidity-factor tables; the water-property table is shared by the process): 24 h of daily weather, normal-concrete, 150 mm, 60 cells: ${reference.steps} steps in ${reference.ms.toFixed(0)} ms (each step: about 3 Newton iterations with one bulk property evaluation and one Thomas solve each, plus maturity, refinement, the remap after temperature changes and the hourly figures); load average ${loadavg()[0]?.toFixed(1)} on ${availableParallelism()} cores`,
+      detail: `whole model, CPU time, best of 21 (each run builds its model, untimed, so the runs include filling the model's lazily filled tables: age laws, humidity factor, equivalent pore pressure, figure laws; the water-property table is shared by the process): 24 h of daily weather, normal-concrete, 150 mm, 60 cells: ${reference.steps} steps in ${reference.ms.toFixed(0)} ms (each step: 2 to 3 Newton iterations, each a bulk property evaluation and an elimination, a mass check on the water content, then maturity and refinement with the remap that keeps each cell's water; each 15 min interval: the surface set-up and the remap after the temperatures change; each hour: the figures); load average ${loadavg()[0]?.toFixed(1)} on ${availableParallelism()} cores`,
     }),
     ratioFigure({
       name: 'engine.costPerCellStepSharedModelVsTridiagonal',

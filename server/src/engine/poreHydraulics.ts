@@ -182,7 +182,7 @@ export function createPoreHydraulics(options: PoreHydraulicsOptions): PoreHydrau
   const inverseStep = table.inverseStep;
   const step = 1 / inverseStep;
   // pi at the saturation table's nodes, filled the first time a look-up needs them (a whole
-  // table would cost 0.4 ms per model): linear in u = ln(suction) between nodes, within 1e-6 of
+  // table would cost 0.4 ms per model): linear in v = log2Linear(suction) between nodes, within 2e-6 of
   // the curve (test/engine/poreHydraulics.test.ts), like the saturation it is read beside.
   const equivalentNodes = new Float64Array(table.nodeCount).fill(Number.NaN);
   const equivalentAtNode = (node: number): number => {
