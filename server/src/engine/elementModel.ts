@@ -32,7 +32,8 @@ import type { ElementState } from './elementState.ts';
 import { buildDepthGrid, domainDepthM, type DepthGrid } from './grid.ts';
 import { createWorkspace, type SurfaceCondition } from './implicitStep.ts';
 import { createPoreHydraulics, type PoreHydraulics } from './poreHydraulics.ts';
-import { advanceTransport, type StepControlOptions } from './stepController.ts';
+import { advanceTransport, type StepCheck, type StepControlOptions } from './stepController.ts';
+import { nextFilmTrialS, type FilmTrial } from './_filmStepSize.ts';
 import { createAgeTable } from './_ageTable.ts';
 import { createHumidityFactorTable } from './_humidityFactorTable.ts';
 import { defaultSettingDepthM, hasReachedFinalSet, settingCellIndex } from './stressReference.ts';
@@ -47,6 +48,26 @@ export type {
   ElementModelOptions,
   InitialStateOverrides,
 } from './elementModelConfig.ts';
+
+/**
+ * Film below which the rest of a bleed film is counted as evaporated and the surface is exposed,
+ * kg/m2 (our assumption: a nanometre of water, far below any figure the tool shows; it keeps a
+ * vanishing film from asking for ever shorter steps).
+ */
+const FILM_FLOOR_KG_M2 = 1e-9;
+/**
+ * A film step that runs the film out may use up to this fraction more or less than the film
+ * (our assumption): more only as evaporation the step could not have (the film ran out just
+ * before the end), never as water drawn into the body.
+ */
+const FILM_TOLERANCE = 0.1;
+/** Most retries of one film step before its film is ended (our assumption). */
+const FILM_MAX_TRIALS = 40;
+/**
+ * Shortest film step as a fraction of the model time (at least 1 s), below which the film is
+ * ended: about 4500 times the rounding of a double, so the step still moves the time.
+ */
+const FILM_SHORTEST_STEP_FRACTION = 1e-12;
 
 /** A ready element model: shared by every state (ensemble member) of the element. */
 export interface ElementModel {
@@ -261,19 +282,154 @@ export function createElementModel(config: ElementModelConfig): ElementModel {
     return rate / liquidDensity;
   };
   const outflow: SurfaceCondition = { kind: 'outflow', volumeFluxMs: outflowFlux };
+  // A surface that draws in more than the bleeding brings (no film can form): all the bleed water
+  // goes into the body, and the clamp at no condensation holds for evaporation alone.
+  const absorbingFlux = (surfacePressurePa: number): number => {
+    const surface = evaporation as SurfaceEvaporation;
+    const humidity = hydraulics.relativeHumidity(0, Math.min(0, surfacePressurePa));
+    const evaporationRate = surface.signedRateKgM2s(humidity);
+    const rate = surface.allowCondensation
+      ? evaporationRate
+      : Math.max(evaporationRate, condensationFloor);
+    return (rate - bleedRate) / liquidDensity;
+  };
+  const absorbing: SurfaceCondition = { kind: 'outflow', volumeFluxMs: absorbingFlux };
   const saturatedSurface: SurfaceCondition = { kind: 'pressure', pressurePa: 0 };
+  // Start time of a step that must be exposed although bleeding outpaces evaporation: the body
+  // draws in more than the bleeding brings, so no film forms (NaN: none).
+  let exposedFromS = Number.NaN;
   const surfaceAt = (endS: number): SurfaceCondition => {
     const surface = evaporation as SurfaceEvaporation;
+    const state = stepState as ElementState;
     bleedRate = mix !== undefined && endS <= mix.bleedingDurationS ? mix.bleedRateKgM2s : 0;
+    const forcedExposed = state.transport.timeS === exposedFromS;
     if (surface.heldSaturated) mode = 'covered';
     else if (
-      (stepState as ElementState).bleedFilmKgM2 > 0 ||
-      (bleedRate > 0 && surface.potentialKgM2s <= bleedRate)
+      !forcedExposed &&
+      (state.bleedFilmKgM2 > FILM_FLOOR_KG_M2 ||
+        (bleedRate > 0 && surface.potentialKgM2s <= bleedRate))
     )
       mode = 'film';
     else mode = 'exposed';
-    return mode === 'exposed' ? outflow : saturatedSurface;
+    if (mode !== 'exposed') return saturatedSurface;
+    return forcedExposed ? absorbing : outflow;
   };
+
+  // The search for a film step that uses no more water than the film holds (physics.md
+  // section 4: the film, not the body, is saturated; the body can only take the film's water).
+  // A trial whose film water `need` (inflow, plus evaporation, less bleeding) exceeds the film by
+  // more than FILM_TOLERANCE, or whose inflow alone exceeds film plus bleeding, is retried
+  // shorter; a retry is accepted once the film runs out within FILM_TOLERANCE of its end.
+  let searchFromS = Number.NaN;
+  const shortTrial: FilmTrial = { stepS: 0, needKgM2: 0 };
+  const longTrial: FilmTrial = { stepS: 0, needKgM2: 0 };
+  const longTrialBefore: FilmTrial = { stepS: 0, needKgM2: 0 };
+  let longTrials = 0;
+  let searchTrials = 0;
+  let exponentOfSearch = Number.NaN;
+  // The next step's length after a searched step that left some film: the same absorption,
+  // continued until the rest is used (NaN: no guess).
+  let guessFromS = Number.NaN;
+  let guessS = Number.NaN;
+  const endFilm = (state: ElementState): void => {
+    // What is left is too little to resolve: counted as evaporated, and the surface is exposed.
+    state.evaporatedKgM2 += state.bleedFilmKgM2;
+    state.bleedFilmKgM2 = 0;
+    exposedFromS = state.transport.timeS;
+  };
+  const filmCheck: StepCheck = {
+    longestStepS: (timeS) => (timeS === guessFromS ? guessS : Number.POSITIVE_INFINITY),
+    retryStepS: (stepS, result) => {
+      if (mode !== 'film') return Number.POSITIVE_INFINITY;
+      const state = stepState as ElementState;
+      const surface = evaporation as SurfaceEvaporation;
+      const timeS = state.transport.timeS;
+      const filmKgM2 = state.bleedFilmKgM2;
+      const inflowKgM2 = result.surfaceInflowM * liquidDensity;
+      const bledKgM2 = bleedRate * stepS;
+      const needKgM2 = inflowKgM2 + surface.potentialKgM2s * stepS - bledKgM2;
+      const overdrawn = inflowKgM2 > filmKgM2 + bledKgM2;
+      if (filmKgM2 <= FILM_FLOOR_KG_M2) {
+        // Film mode only because bleeding outpaces evaporation: a body that draws in more than
+        // the bleeding brings takes it through an exposed surface instead.
+        if (!overdrawn) return Number.POSITIVE_INFINITY;
+        exposedFromS = timeS;
+        return stepS;
+      }
+      if (timeS !== searchFromS) {
+        searchFromS = timeS;
+        shortTrial.stepS = 0;
+        shortTrial.needKgM2 = 0;
+        longTrials = 0;
+        searchTrials = 0;
+      }
+      const tooLong = overdrawn || needKgM2 > (1 + FILM_TOLERANCE) * filmKgM2;
+      const searching = searchTrials > 0;
+      if (!tooLong && (!searching || needKgM2 >= (1 - FILM_TOLERANCE) * filmKgM2)) {
+        if (searching || timeS === guessFromS) rememberGuess(timeS, stepS, needKgM2, filmKgM2);
+        return Number.POSITIVE_INFINITY;
+      }
+      searchTrials += 1;
+      if (tooLong) {
+        if (longTrials > 0) {
+          longTrialBefore.stepS = longTrial.stepS;
+          longTrialBefore.needKgM2 = longTrial.needKgM2;
+        }
+        longTrial.stepS = stepS;
+        longTrial.needKgM2 = needKgM2;
+        longTrials += 1;
+      } else {
+        shortTrial.stepS = stepS;
+        shortTrial.needKgM2 = needKgM2;
+      }
+      const targetKgM2 = (1 - 0.5 * FILM_TOLERANCE) * filmKgM2;
+      const retryS = nextFilmTrialS(
+        shortTrial,
+        longTrial,
+        longTrials > 1 ? longTrialBefore : null,
+        targetKgM2,
+      );
+      exponentOfSearch =
+        shortTrial.stepS > 0 && shortTrial.needKgM2 > 0
+          ? Math.log(longTrial.needKgM2 / shortTrial.needKgM2) /
+            Math.log(longTrial.stepS / shortTrial.stepS)
+          : Number.NaN;
+      // A film that the body takes faster than model time can resolve, or a search that does
+      // not close, must not stall the run.
+      if (
+        searchTrials > FILM_MAX_TRIALS ||
+        !(retryS > FILM_SHORTEST_STEP_FRACTION * Math.max(1, timeS))
+      ) {
+        if (!tooLong) return Number.POSITIVE_INFINITY;
+        endFilm(state);
+        return stepS;
+      }
+      return retryS;
+    },
+  };
+  // What the last guess aimed to use, kg/m2, and a factor learnt from how far the guesses fell
+  // short or over (the absorption slows down as the surface wets, which the power law misses).
+  let guessNeedKgM2 = Number.NaN;
+  let guessCorrection = 1;
+  const rememberGuess = (
+    timeS: number,
+    stepS: number,
+    needKgM2: number,
+    filmKgM2: number,
+  ): void => {
+    const exponent = Math.min(2, Math.max(0.25, exponentOfSearch || 0.75));
+    const guided = timeS === guessFromS && stepS === guessS;
+    guessCorrection = guided
+      ? Math.min(5, Math.max(0.2, guessCorrection * (guessNeedKgM2 / needKgM2) ** (1 / exponent)))
+      : 1;
+    const restKgM2 = filmKgM2 - needKgM2;
+    guessFromS = Number.NaN;
+    if (!(restKgM2 > FILM_FLOOR_KG_M2) || !(needKgM2 > 0) || !(guessCorrection > 0)) return;
+    guessFromS = timeS + stepS;
+    guessNeedKgM2 = (1 - 0.5 * FILM_TOLERANCE) * restKgM2;
+    guessS = stepS * ((1 + guessNeedKgM2 / needKgM2) ** (1 / exponent) - 1) * guessCorrection;
+  };
+
   const onStep = (stepS: number, result: { surfaceInflowM: number }): void => {
     const state = stepState as ElementState;
     const surface = evaporation as SurfaceEvaporation;
@@ -285,13 +441,19 @@ export function createElementModel(config: ElementModelConfig): ElementModel {
       state.coveringUptakeKgM2 += inflowKgM2;
       state.bleedFilmKgM2 += bled;
     } else if (mode === 'film') {
+      // filmCheck accepted the step only if the inflow is within film plus bleeding: film >= 0.
       const film = state.bleedFilmKgM2 + bled - inflowKgM2;
-      const wanted = surface.potentialKgM2s * stepS;
-      const taken = Math.min(Math.max(film, 0), wanted);
+      const taken = Math.min(film, surface.potentialKgM2s * stepS);
       state.evaporatedKgM2 += taken;
-      state.bleedFilmKgM2 = Math.max(0, film - taken);
+      state.bleedFilmKgM2 = film - taken;
+      if (state.bleedFilmKgM2 <= FILM_FLOOR_KG_M2) {
+        state.evaporatedKgM2 += state.bleedFilmKgM2;
+        state.bleedFilmKgM2 = 0;
+      }
     } else {
-      state.evaporatedKgM2 += bled - inflowKgM2;
+      // A film too thin to resolve (FILM_FLOOR_KG_M2) evaporates with the step.
+      state.evaporatedKgM2 += bled - inflowKgM2 + state.bleedFilmKgM2;
+      state.bleedFilmKgM2 = 0;
     }
     state.lastEvaporationKgM2s = (state.evaporatedKgM2 - evaporatedBefore) / stepS;
     state.lastPotentialEvaporationKgM2s = surface.potentialKgM2s;
@@ -350,6 +512,10 @@ export function createElementModel(config: ElementModelConfig): ElementModel {
     // return to the surface (our assumption, a numerical regularisation of the clamp).
     condensationFloor = -1e-4 * Math.abs(evaporation.signedRateKgM2s(1));
     stepState = state;
+    // The film search belongs to one state's interval: members share this model.
+    searchFromS = Number.NaN;
+    guessFromS = Number.NaN;
+    exposedFromS = Number.NaN;
     try {
       advanceTransport(
         grid,
@@ -360,6 +526,7 @@ export function createElementModel(config: ElementModelConfig): ElementModel {
         surfaceAt,
         stepOptions,
         onStep,
+        filmCheck,
       );
     } finally {
       stepState = null;
