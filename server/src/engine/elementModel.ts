@@ -148,7 +148,6 @@ export function createElementModel(config: ElementModelConfig): ElementModel {
   // One options object for every call (a default parameter would be a new object per call).
   const humidityOptions: HydrationHumidityOptions = {};
   const surfaceOptions: SurfaceEvaporationOptions = { ...options.surface };
-  const waterBefore = new Float64Array(n);
   const maturityRate = new Float64Array(n);
   // Temperature for which maturityRate[i] was computed: cells share a handful of temperatures
   // and the Arrhenius factor only changes with them.
@@ -192,34 +191,6 @@ export function createElementModel(config: ElementModelConfig): ElementModel {
     hydraulics.specificStoragePerPa.set(state.specificStoragePerPa);
     hydraulics.setPermeabilityMultiplier(state.parameters.permeabilityMultiplier);
     hydraulics.refreshTemperature();
-  };
-
-  const rememberWater = (state: ElementState): void => {
-    for (let i = 0; i < n; i += 1) {
-      waterBefore[i] = hydraulics.waterContentAt(i, state.transport.pressurePa[i] as number);
-    }
-  };
-
-  // Pressure scale c_i of every cell before a change of its curve: the pressure that holds the
-  // same saturation under the new scale is p c_old / c_new, the remap's first guess.
-  const scaleBefore = new Float64Array(n);
-
-  /**
-   * After the temperatures changed the water-content curves, moves the pressures so each cell
-   * holds the same water as before: mass is conserved exactly (to rounding) through the change.
-   * `scaleBefore` holds each cell's pressure scale before it. (Hydration's changes of the curves
-   * go through `rescaleKeepingWater`, in updateMaturity.)
-   */
-  const remapPressures = (state: ElementState): void => {
-    const pressures = state.transport.pressurePa;
-    for (let i = 0; i < n; i += 1) {
-      pressures[i] = hydraulics.pressureKeepingWater(
-        i,
-        waterBefore[i] as number,
-        pressures[i] as number,
-        scaleBefore[i] as number,
-      );
-    }
   };
 
   const initialState = (
@@ -469,17 +440,10 @@ export function createElementModel(config: ElementModelConfig): ElementModel {
       state.stressReferenceTimeS = Number.NaN;
     }
     fillCellTemperatures(inputs, grid.centresM, newTemperatureK);
-    let temperatureChanged = false;
-    for (let i = 0; i < n; i += 1) {
-      if (newTemperatureK[i] !== state.temperatureK[i]) temperatureChanged = true;
-    }
-    if (temperatureChanged) {
-      rememberWater(state);
-      scaleBefore.set(hydraulics.pressureScale);
+    // New temperatures change the water-content curves: the cells whose temperature changed move
+    // their pressures so they keep their water (mass conserved to rounding through the change).
+    if (hydraulics.setTemperaturesKeepingWater(newTemperatureK, state.transport.pressurePa)) {
       state.temperatureK.set(newTemperatureK);
-      hydraulics.temperatureK.set(newTemperatureK);
-      hydraulics.refreshTemperature();
-      remapPressures(state);
     }
     for (let i = 0; i < n; i += 1) {
       const temperature = state.temperatureK[i] as number;

@@ -81,6 +81,8 @@ export interface StepWorkspace {
   iterate: Float64Array;
   increment: Float64Array;
   scratch: Float64Array;
+  /** The pressures a trial step computes, for advanceTransport (implicitStep never reads it). */
+  trialPressurePa: Float64Array;
   perturbed: Float64Array;
   waterPerturbed: Float64Array;
   capacityPerturbed: Float64Array;
@@ -105,6 +107,7 @@ export function createWorkspace(cellCount: number): StepWorkspace {
     iterate: make(),
     increment: make(),
     scratch: make(),
+    trialPressurePa: make(),
     perturbed: make(),
     waterPerturbed: make(),
     capacityPerturbed: make(),

@@ -291,12 +291,17 @@ export function createPoreHydraulics(options: PoreHydraulicsOptions): PoreHydrau
     const reference = pressurePa * (pressureScale[cell] as number);
     const storageCoefficient = specificStoragePerPa[cell] as number;
     if (reference >= airEntryRef) return porosity + storageCoefficient * pressurePa;
-    lookup(reference);
-    // The same expression as evaluate(), so both give the same bits.
-    return (
-      porosity * lookupSaturation +
-      storageCoefficient * airEntryRef * (inverseScale[cell] as number)
-    );
+    // The same expressions as evaluate(), so both give the same bits.
+    const position = (log2Linear(-reference) - coordinateStart) * inverseStep;
+    let s: number;
+    if (position >= lastNode) {
+      s = tableSaturation[lastNode] as number;
+    } else {
+      const node = position > 0 ? Math.floor(position) : 0;
+      const s0 = tableSaturation[node] as number;
+      s = s0 + (position - node) * ((tableSaturation[node + 1] as number) - s0);
+    }
+    return porosity * s + storageCoefficient * airEntryRef * (inverseScale[cell] as number);
   };
 
   const pressureForWaterContent = (cell: number, target: number, guessPa: number): number => {

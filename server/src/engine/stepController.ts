@@ -119,7 +119,7 @@ export function advanceTransport(
   const picardFallbackIterations = options.picardFallbackIterations ?? 60;
   const elapsedFraction = options.maxStepFractionOfElapsed ?? Number.POSITIVE_INFINITY;
   const timeOriginS = options.timeOriginS ?? 0;
-  const next = new Float64Array(grid.cellCount);
+  const next = workspace.trialPressurePa; // no allocation per call (one per interval)
   // A retry the check asked for (NaN: none): same start, shorter step.
   let retryS = Number.NaN;
   while (state.timeS < targetTimeS) {
