@@ -245,6 +245,44 @@ describe('LiveHost', () => {
     expect(reported).toEqual([]);
   });
 
+  it('reports with each state the measure log the engine had for it, in record order and after a resume', async () => {
+    const seen: { eventTimeMs: number | null; ids: string[]; engineCount: number | undefined }[] =
+      [];
+    const options: LiveHostOptions = {
+      onAdvance: (_runId, state, measures) =>
+        seen.push({
+          eventTimeMs: state.eventTimeMs,
+          ids: measures.map((m) => m.id),
+          engineCount: calibration(state, 'measures'),
+        }),
+    };
+    const r = rig('a.sqlite', options);
+    createRun(r);
+    await publishMinutes(r, 0, 30);
+    await r.host.idle();
+    const before = seen.length;
+    r.lifecycle.startMeasure('run-1', {
+      kind: 'fogging',
+      startMs: EXAMPLE_PLACED_AT_MS + 20 * MINUTE_MS,
+      endMs: null,
+      loggedBy: 'J. Okafor',
+    });
+    await publishMinutes(r, 30, 70);
+    await r.host.idle();
+    expect(before).toBeGreaterThan(0);
+    expect(seen.slice(0, before).map((s) => s.ids)).toEqual(Array(before).fill([]));
+    expect(seen.slice(before).map((s) => s.ids)).toEqual(Array(seen.length - before).fill(['m1']));
+    // what is reported is what the engine was given (the stand-in counts its measures)
+    for (const s of seen) expect(s.ids).toHaveLength(s.engineCount ?? -1);
+    r.archive.close(); // a crash: the restart resumes from the last snapshot
+    seen.length = 0;
+    const restarted = rig('a.sqlite', options);
+    await publishMinutes(restarted, 70, 100);
+    await restarted.host.idle();
+    expect(seen.at(-1)?.ids).toEqual(['m1']);
+    for (const s of seen) expect(s.ids).toHaveLength(s.engineCount ?? -1);
+  });
+
   it('close() snapshots every open engine so a clean restart replays nothing', async () => {
     const r = rig('a.sqlite');
     createRun(r);

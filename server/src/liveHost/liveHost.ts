@@ -14,6 +14,7 @@
  */
 import type {
   CreateRunEngine,
+  MeasureEntry,
   RunEngine,
   RunEngineOptions,
   RunEngineSnapshot,
@@ -38,9 +39,10 @@ export interface LiveHostOptions {
   /**
    * Called with every state the engine reaches, in event-time order, including those of a
    * catch-up after a restart (rules that follow event time need each one). The host itself
-   * records each one in the archive's figure history before calling this.
+   * records each one in the archive's figure history before calling this. `measures` is the
+   * measure log as the engine had it for the state (what its outlook counts).
    */
-  onAdvance?: (runId: string, state: RunState) => void;
+  onAdvance?: (runId: string, state: RunState, measures: readonly MeasureEntry[]) => void;
   /** Called when an engine throws; the run keeps its last state. */
   onError?: (runId: string, error: unknown) => void;
 }
@@ -241,7 +243,7 @@ export class LiveHost {
     const onAdvance = report
       ? (state: RunState): void => {
           this.#archive.figures.record(runId, state);
-          this.#options.onAdvance(runId, state);
+          this.#options.onAdvance(runId, state, hosted.feed.measures);
         }
       : undefined;
     const fed = hosted.feed.catchUp(this.#options.feedBatch, onAdvance);

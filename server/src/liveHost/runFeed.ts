@@ -6,7 +6,7 @@
  * run's record order alone, whatever the grouping of commits or the timing of the host, and a
  * replay of the archive gives the live figures exactly.
  */
-import type { RunEngine, RunState } from '../live/types.ts';
+import type { MeasureEntry, RunEngine, RunState } from '../live/types.ts';
 import type { ForecastPoint } from '../live/types.ts';
 import { foldMeasureLog, MEASURE_EVENT_KINDS, measureEntry } from '../runs/measureLog.ts';
 import type { ArchiveQueries } from '../store/archiveQueries.ts';
@@ -35,6 +35,7 @@ export class RunFeed {
   readonly #runId: string;
   readonly #engine: RunEngine;
   #measureEvents: RunEventRow[];
+  #measures: readonly MeasureEntry[] = [];
   /** Seq of the last record given to the engine. */
   lastSeq: number;
   /** Id of the last reading given to the engine (for reports). */
@@ -60,13 +61,18 @@ export class RunFeed {
     const kinds = [...MEASURE_EVENT_KINDS, 'forecast'];
     const events = from === null ? [] : archive.eventsUpTo(runId, from.lastSeq, kinds);
     this.#measureEvents = events.filter((e) => e.kind !== 'forecast');
-    engine.setMeasures(foldMeasureLog(this.#measureEvents).map(measureEntry));
+    this.#giveMeasures();
     const forecast = events.filter((e) => e.kind === 'forecast').at(-1);
     engine.setForecast(forecast === undefined ? [] : forecastPoints(forecast));
     if (from !== null && from.eventTimeMs !== null) {
       const buffered = archive.runReadingsBufferedAt(runId, from.lastSeq, from.eventTimeMs);
       engine.addReadings(buffered.map(liveReading));
     }
+  }
+
+  /** The measure log as last given to the engine: what its states count (crew notices name it). */
+  get measures(): readonly MeasureEntry[] {
+    return this.#measures;
   }
 
   /**
@@ -93,7 +99,7 @@ export class RunFeed {
           }
         } else if ((MEASURE_EVENT_KINDS as readonly string[]).includes(item.event.kind)) {
           this.#measureEvents.push(item.event);
-          this.#engine.setMeasures(foldMeasureLog(this.#measureEvents).map(measureEntry));
+          this.#giveMeasures();
         } else if (item.event.kind === 'forecast') {
           this.#engine.setForecast(forecastPoints(item.event));
         }
@@ -101,6 +107,11 @@ export class RunFeed {
       }
       if (items.length < pageSize) return result;
     }
+  }
+
+  #giveMeasures(): void {
+    this.#measures = foldMeasureLog(this.#measureEvents).map(measureEntry);
+    this.#engine.setMeasures(this.#measures);
   }
 }
 
