@@ -1,16 +1,21 @@
 /**
  * The words of a crew notice: a one-line title and a plain-language text for a crew lead reading
- * a phone on site. The level written out, what is happening, what to do now (measures that fit
- * the phase: before final set fogging, windbreaks and shade; after it wet covering or curing
- * compound), the key figures with units, the element and site, local times in the run's own
- * offset, and the caution every output carries (physics.md).
+ * a phone on site. The level written out, what is happening, the curing measures of the log
+ * already in place and counted in the forecast, what to do now (the measures of the phase not
+ * yet in place, _protectionAdvice.ts; with all of them in place: keep them going, check them and
+ * call the site engineer), the key figures with units, the element and site, local times in the
+ * run's own offset, and the caution every output carries (physics.md).
  */
 import type { RunConfig } from '../config/runConfig.ts';
 import { placedAtMs } from '../config/runConfig.ts';
 import { CAUTION_TEXT } from '../live/caution.ts';
-import type { RunState } from '../live/types.ts';
+import type { MeasureEntry, RunState } from '../live/types.ts';
 import { fixed2, formatDuration, localClock, localDateTime, offsetMinOf } from './_localTime.ts';
-import type { NoticeDraft, NoticeFigures } from './types.ts';
+import { inPlaceSentence, kindsInPlaceAt } from './_measuresInPlace.ts';
+import type { KindInPlace } from './_measuresInPlace.ts';
+import { warningWording } from './_warningWording.ts';
+import type { Wording } from './_warningWording.ts';
+import type { NoticeDraft, NoticeFigures, NoticeKind } from './types.ts';
 
 /** What a text needs besides the draft. */
 export interface NoticeTextContext {
@@ -19,15 +24,20 @@ export interface NoticeTextContext {
   phase: RunState['phase'];
   /** The alert options' dwell, min, for the easing text [30]. */
   dwellMin?: number;
+  /**
+   * The run's measure log as the engine had it for the state [none]. A warning names the
+   * entries in place at the draft's time (raisedAtMs) and advises only what is not.
+   */
+  measures?: readonly MeasureEntry[];
 }
 
-/** Measures that fit each phase (terms of the trade; common practice, e.g. ACI 308R, ACI 305R). */
-const MEASURES: Record<'plastic' | 'hardening', string> = {
-  plastic:
-    'fog the air just above the surface (a fine mist; do not work water into the surface), put up windbreaks on the windward side, shade the surface from the sun',
-  hardening:
-    'cover the surface with wet burlap or plastic sheeting and keep it wet, or spray a curing compound; keep windbreaks and shade up',
-};
+/** Kinds of notice that ask for curing protection. */
+const WARNING_KINDS: readonly NoticeKind[] = [
+  'utilization',
+  'margin-outlook',
+  'evaporation-rate',
+  'bleed-exceeded',
+];
 
 /** What each concern is called in an easing notice. */
 function concernName(conditionKey: string): string {
@@ -41,7 +51,8 @@ function concernName(conditionKey: string): string {
  * Title and text of a notice.
  *
  * Title: `<LEVEL>: <what to do or what happened> - <when or the key figure>`. Text: paragraphs
- * for where and when, what is happening, what to do now, the figures, and the caution.
+ * for where and when, what is happening, the measures in place (warnings only, when the log has
+ * any at the draft's time), what to do now, the figures, and the caution.
  */
 export function noticeText(
   draft: NoticeDraft,
@@ -55,12 +66,23 @@ export function noticeText(
   const when =
     `${localDateTime(draft.raisedAtMs, offset)}, ${formatDuration(sincePlacement)} after placement at ` +
     `${localClock(placedAtMs(config), offset)}, ${phase === 'plastic' ? 'before final set' : 'after final set'}.`;
-  const { headline, happening, todo } = wording(draft, phase, offset, context.dwellMin ?? 30);
+  const warning = WARNING_KINDS.includes(draft.kind);
+  // Measures only matter to a warning: the other notices ask for no protection.
+  const inPlace = warning ? kindsInPlaceAt(context.measures ?? [], draft.raisedAtMs) : [];
+  const logged = inPlaceSentence(inPlace, offset);
+  const { headline, happening, todo } = wording(
+    draft,
+    phase,
+    offset,
+    context.dwellMin ?? 30,
+    inPlace,
+  );
   const title = `${draft.level}: ${headline}${draft.repeat ? ' (repeated: not yet acknowledged)' : ''}`;
   const paragraphs = [
     `${draft.level} - ${where}`,
     when,
     `What is happening: ${sentence(happening)}`,
+    ...(logged === null ? [] : [logged]),
     `What to do now: ${sentence(todo)}`,
     `Figures: ${figureLine(draft.figures, offset, phase)}.`,
     CAUTION_TEXT,
@@ -80,7 +102,8 @@ function wording(
   phase: 'plastic' | 'hardening',
   offset: number,
   dwellMin: number,
-): { headline: string; happening: string; todo: string } {
+  inPlace: readonly KindInPlace[],
+): Wording {
   const reasons = draft.reasons.join('; ');
   const closing = draft.figures.expectedClosingMs;
   const u = draft.figures.utilization;
@@ -105,29 +128,11 @@ function wording(
     case 'margin-outlook':
     case 'evaporation-rate':
     case 'bleed-exceeded': {
-      const happening = `${drying}: ${reasons}`;
-      if (draft.level === 'CRACKING LIKELY') {
-        return {
-          headline: `protect the surface at once${closesIn}`,
-          happening,
-          todo: `at once, ${MEASURES[phase]}. Check the surface for fine cracks and tell the site engineer. Log each measure in Meniscus and acknowledge this notice there, or it is repeated`,
-        };
-      }
-      if (draft.level === 'ACT NOW') {
-        return {
-          headline: `apply curing protection${closesIn}`,
-          happening,
-          todo: `now, ${MEASURES[phase]}. Log each measure in Meniscus so the outlook counts it, and acknowledge this notice there, or it is repeated`,
-        };
-      }
-      const dryingOnly = draft.kind === 'evaporation-rate' || draft.kind === 'bleed-exceeded';
-      return {
-        headline: dryingOnly
-          ? `get protection ready - ${draft.kind === 'evaporation-rate' ? 'evaporation rate high' : 'bleed water running out'}`
-          : `get curing protection ready${closing === null ? ' - the outlook shows the margin closing' : closesIn}`,
-        happening,
-        todo: `get people and material ready to ${MEASURES[phase]}`,
-      };
+      return warningWording(draft, phase, {
+        happening: `${drying}: ${reasons}`,
+        closesIn,
+        inPlace,
+      });
     }
     case 'sensor-silent':
       return {
