@@ -95,7 +95,7 @@ export async function startServer(
     onState: (runId, state) => {
       if (io !== null) pushState(io, runId, state);
     },
-    onAdvance: (runId, state) => notices.onState(runId, state),
+    onAdvance: (runId, state, measures) => notices.onState(runId, state, measures),
     onError: (runId, error) => log.error({ err: error, runId }, 'live engine failed on a run'),
   });
   // Before the broker: every commit from now on reaches the engines.

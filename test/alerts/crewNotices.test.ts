@@ -97,7 +97,7 @@ function rig(file: string): Rig {
   notices.watchMeasures(lifecycle);
   const host = new LiveHost(archive, lifecycle, scriptedEngine, {
     snapshotEveryS: 1800,
-    onAdvance: (runId, state) => notices.onState(runId, state),
+    onAdvance: (runId, state, measures) => notices.onState(runId, state, measures),
   });
   host.start();
   const ingestor = new Ingestor(archive, { clock: () => EXAMPLE_PLACED_AT_MS + 24 * 3_600_000 });
@@ -201,6 +201,34 @@ describe('CrewNotices', () => {
     await r.host.idle();
     expect(r.notices.list('run-1').filter((n) => n.repeat)).toEqual([]);
     expect(r.notices.acknowledge('run-1', 'n-run-1-99', 'x')).toBeNull();
+  });
+
+  it("a warning's stored text names the measures the engine counted at its time, and only those", async () => {
+    const r = rig('counted.sqlite');
+    createRun(r);
+    await publishMinutes(r, 0, 30);
+    await r.host.idle();
+    r.lifecycle.startMeasure('run-1', {
+      kind: 'windbreak',
+      startMs: EXAMPLE_PLACED_AT_MS + 20 * MIN,
+      endMs: null,
+      loggedBy: 'J. Okafor',
+    });
+    await publishMinutes(r, 30, 100);
+    await r.host.idle();
+    const warnings = r.notices.list('run-1').filter((n) => n.kind === 'margin-outlook');
+    const at = (minute: number) =>
+      warnings.find((n) => n.raisedAtMs === EXAMPLE_PLACED_AT_MS + minute * MIN);
+    const logged = 'A windbreak is logged since 11:40 and is counted in this forecast.';
+    // the PREPARE at placement came before the windbreak
+    expect(at(0)?.text).not.toContain('windbreak is logged');
+    expect(at(0)?.text).toContain('keep windbreaks and shade up');
+    // the ACT NOW at minute 40 (lead time 60 min) came after it: named, not advised again
+    expect(at(40)?.title).toMatch(/^ACT NOW: add curing protection/);
+    expect(at(40)?.text).toContain(logged);
+    expect(at(40)?.text).toContain('Keep the windbreak going.');
+    expect(at(40)?.text).not.toContain('put up windbreaks');
+    expect(at(40)?.text).not.toContain('keep windbreaks and shade up');
   });
 
   it('notes each measure of the log once, at its start, also after a restart', async () => {

@@ -1,9 +1,10 @@
 /**
  * Crew notices of every run, end to end: each state a run's engine reaches (in event-time
  * order, from the live host's onAdvance) goes through the rules and the run's alert state; each
- * notice decided is written with its text and one pending delivery per channel and recipient,
- * together with the alert state after it, in one transaction; then it is announced (socket.io,
- * the demo's terminal) and the outbox sends it. Acknowledgements come from the API.
+ * notice decided is written with its text (a warning's names the measures of the log the engine
+ * had for that state) and one pending delivery per channel and recipient, together with the
+ * alert state after it, in one transaction; then it is announced (socket.io, the demo's
+ * terminal) and the outbox sends it. Acknowledgements come from the API.
  *
  * A replay after a restart feeds states the alert state has already taken (the engine resumes
  * from its last snapshot): they are recognised by their event time and raise nothing.
@@ -77,8 +78,11 @@ export class CrewNotices {
   /**
    * Takes a state of a run's engine; returns the notices it raised (already stored). Never
    * throws: a failure is reported to onError and the run's alert state reloaded from the archive.
+   *
+   * @param measures - the measure log as the engine had it for the state (the live host's
+   *   onAdvance gives it) [none]; a warning's text names the measures in place at its time
    */
-  onState(runId: string, state: RunState): Notice[] {
+  onState(runId: string, state: RunState, measures: readonly MeasureEntry[] = []): Notice[] {
     if (state.eventTimeMs === null) return [];
     const eventTimeMs = state.eventTimeMs;
     try {
@@ -93,7 +97,7 @@ export class CrewNotices {
       const notices = store.transaction(() => {
         const drafts = alert.update(findings, eventTimeMs, (id) => store.isAcknowledged(id));
         const stored = drafts.map((draft) => {
-          const notice = this.#store(run, draft, state.phase);
+          const notice = this.#store(run, draft, state.phase, measures);
           alert.noticeSent(draft.conditionKey, notice.id, draft.kind);
           return notice;
         });
@@ -195,11 +199,17 @@ export class CrewNotices {
     return this.outbox.close();
   }
 
-  #store(run: RunRecord, draft: NoticeDraft, phase: RunState['phase']): Notice {
+  #store(
+    run: RunRecord,
+    draft: NoticeDraft,
+    phase: RunState['phase'],
+    measures: readonly MeasureEntry[] = [],
+  ): Notice {
     const { title, text } = noticeText(draft, {
       config: run.config,
       phase,
       dwellMin: this.#options.dwellMin,
+      measures,
     });
     return this.#archive.notices.add(
       {
