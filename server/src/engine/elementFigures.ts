@@ -10,6 +10,7 @@
 import {
   dryingStressFromEquivalentPressure,
   dryingStressFromEquivalentPressureIncrement,
+  type DryingStressResult,
 } from '../physics/dryingStress.ts';
 import { schindlerFolliardDegreeOfHydration } from '../physics/hydration.ts';
 import {
@@ -132,6 +133,156 @@ export interface ElementFigures {
   profiles: ElementProfiles;
 }
 
+/** The element's phase: it sets with its bulk (the setting depth, stressReference.ts). */
+function phaseOf(model: ElementModel, state: ElementState): RiskPhase {
+  const mix = model.material.mix;
+  if (mix === undefined) return 'hardening';
+  const settingAgeS = state.equivalentAgeS[model.settingCell] as number;
+  return riskPhase(settingAgeS / SECONDS_PER_DAY, mix.setting.finalSetEquivalentAgeDays);
+}
+
+/**
+ * The drying stress profile of `state` in the element's mode, counted from the model's stress
+ * reference (module comment), from the equivalent pore pressure of every cell.
+ */
+function stressOf(
+  model: ElementModel,
+  state: ElementState,
+  phase: RiskPhase,
+  depthsM: readonly number[],
+  weightsM: readonly number[],
+  equivalentPressuresPa: number[],
+): { stress: DryingStressResult; stressReferenceTimeS: number } {
+  const { material, config } = model;
+  const requestedMode = config.stressMode ?? 'flat';
+  const mode =
+    config.dryingCase === 'two-face' && requestedMode === 'curl' ? 'flat' : requestedMode;
+  const stressOptions = {
+    mode,
+    restraintDegree: config.restraintDegree ?? 1,
+    biotCoefficient: material.biotCoefficient,
+    poissonRatio: material.poissonRatio,
+    relaxationFactor: material.relaxationFactor,
+  };
+  const stressProfile = { depthsM, weightsM };
+  const reference = config.stressReference ?? DEFAULT_STRESS_REFERENCE;
+  if (reference === 'placement') {
+    return {
+      stress: dryingStressFromEquivalentPressure(
+        stressProfile,
+        equivalentPressuresPa,
+        stressOptions,
+      ),
+      stressReferenceTimeS: Number.NaN,
+    };
+  }
+  if (state.stressReferencePa !== null) {
+    return {
+      stress: dryingStressFromEquivalentPressureIncrement(
+        stressProfile,
+        equivalentPressuresPa,
+        state.stressReferencePa,
+        stressOptions,
+      ),
+      stressReferenceTimeS: state.stressReferenceTimeS,
+    };
+  }
+  if (phase === 'hardening') {
+    // Set but never recorded (a version 1 snapshot not yet advanced): the placement profile.
+    return {
+      stress: dryingStressFromEquivalentPressure(
+        stressProfile,
+        equivalentPressuresPa,
+        stressOptions,
+      ),
+      stressReferenceTimeS: Number.NaN,
+    };
+  }
+  // Before final set the mix flows: no drying stress (the plastic criterion applies).
+  return {
+    stress: dryingStressFromEquivalentPressureIncrement(
+      stressProfile,
+      equivalentPressuresPa,
+      equivalentPressuresPa,
+      stressOptions,
+    ),
+    stressReferenceTimeS: Number.NaN,
+  };
+}
+
+/** The risk of one instant alone: what an outlook needs of each member at each time. */
+export interface ElementRisk {
+  phase: RiskPhase;
+  /** Utilization U of the phase (physics.md section 7). */
+  utilization: number;
+  /** fct - sigma_s, Pa; NaN in the plastic phase. */
+  marginPa: number;
+  /** Drying stress at the surface, Pa (tension positive). */
+  surfaceStressPa: number;
+  surfaceTensileStrengthPa: number;
+}
+
+/** Cell depths and widths of a grid as the stress functions take them, one copy per grid. */
+const stressGrids = new WeakMap<ElementModel['grid'], { depthsM: number[]; weightsM: number[] }>();
+
+/**
+ * The utilization, margin, surface stress and strength of `state`: the same numbers as
+ * {@link evaluateElement} (to the bit), without its profiles, precautions and forecasts. An
+ * outlook asks this of every member at every output time, where the whole figures cost about
+ * a quarter of a live cycle.
+ */
+export function evaluateRisk(
+  model: ElementModel,
+  state: ElementState,
+  thresholds: UtilizationThresholds = DEFAULT_UTILIZATION_THRESHOLDS,
+): ElementRisk {
+  model.applyState(state);
+  const { grid, hydraulics, material } = model;
+  const n = grid.cellCount;
+  let columns = stressGrids.get(grid);
+  if (columns === undefined) {
+    columns = { depthsM: Array.from(grid.centresM), weightsM: Array.from(grid.widthsM) };
+    stressGrids.set(grid, columns);
+  }
+  const pressures = state.transport.pressurePa;
+  const equivalentPressuresPa = new Array<number>(n);
+  for (let i = 0; i < n; i += 1) {
+    equivalentPressuresPa[i] = hydraulics.equivalentPorePressurePa(i, pressures[i] as number);
+  }
+  const phase = phaseOf(model, state);
+  const { stress } = stressOf(
+    model,
+    state,
+    phase,
+    columns.depthsM,
+    columns.weightsM,
+    equivalentPressuresPa,
+  );
+  let surfaceStrength = material.fixedStrength?.tensileStrengthPa ?? Number.NaN;
+  if (material.mix !== undefined) {
+    const laws = lawsAtAge(material.mix);
+    laws.at(state.equivalentAgeS[0] as number);
+    surfaceStrength = laws.values[0] as number;
+  }
+  const risk = riskFigures(
+    phase === 'plastic'
+      ? {
+          phase,
+          surfacePressurePa: pressures[0] as number,
+          criticalSuctionPa: material.criticalSuctionPa,
+        }
+      : { phase, surfaceStressPa: stress.surfaceStressPa, tensileStrengthPa: surfaceStrength },
+    thresholds,
+  );
+  return {
+    phase,
+    utilization: risk.utilization,
+    marginPa: risk.marginPa,
+    surfaceStressPa: stress.surfaceStressPa,
+    surfaceTensileStrengthPa: surfaceStrength,
+  };
+}
+
 /**
  * Evaluates the figures of `state` under `model`. For `two-face` drying the profiles cover the
  * half thickness (surface to symmetry plane) and 'curl' acts as 'flat'.
@@ -191,56 +342,15 @@ export function evaluateElement(
       profiles.degreeOfHydration[i] = Number.NaN;
     }
   }
-  const requestedMode = config.stressMode ?? 'flat';
-  const mode =
-    config.dryingCase === 'two-face' && requestedMode === 'curl' ? 'flat' : requestedMode;
-  const stressOptions = {
-    mode,
-    restraintDegree: config.restraintDegree ?? 1,
-    biotCoefficient: material.biotCoefficient,
-    poissonRatio: material.poissonRatio,
-    relaxationFactor: material.relaxationFactor,
-  };
-  const stressProfile = { depthsM: profiles.depthM, weightsM: copy(grid.widthsM) };
-  const reference = config.stressReference ?? DEFAULT_STRESS_REFERENCE;
-  // The element sets with its bulk (the setting depth, stressReference.ts), not its surface skin.
-  const settingAgeS = state.equivalentAgeS[model.settingCell] as number;
-  const phase: RiskPhase =
-    material.mix === undefined
-      ? 'hardening'
-      : riskPhase(settingAgeS / SECONDS_PER_DAY, material.mix.setting.finalSetEquivalentAgeDays);
-  let stressReferenceTimeS = Number.NaN;
-  let stress;
-  if (reference === 'placement') {
-    stress = dryingStressFromEquivalentPressure(
-      stressProfile,
-      profiles.equivalentPorePressurePa,
-      stressOptions,
-    );
-  } else if (state.stressReferencePa !== null) {
-    stressReferenceTimeS = state.stressReferenceTimeS;
-    stress = dryingStressFromEquivalentPressureIncrement(
-      stressProfile,
-      profiles.equivalentPorePressurePa,
-      state.stressReferencePa,
-      stressOptions,
-    );
-  } else if (phase === 'hardening') {
-    // Set but never recorded (a version 1 snapshot not yet advanced): the placement profile.
-    stress = dryingStressFromEquivalentPressure(
-      stressProfile,
-      profiles.equivalentPorePressurePa,
-      stressOptions,
-    );
-  } else {
-    // Before final set the mix flows: no drying stress (the plastic criterion applies).
-    stress = dryingStressFromEquivalentPressureIncrement(
-      stressProfile,
-      profiles.equivalentPorePressurePa,
-      profiles.equivalentPorePressurePa,
-      stressOptions,
-    );
-  }
+  const phase = phaseOf(model, state);
+  const { stress, stressReferenceTimeS } = stressOf(
+    model,
+    state,
+    phase,
+    profiles.depthM,
+    copy(grid.widthsM),
+    profiles.equivalentPorePressurePa,
+  );
   profiles.stressPa = stress.stressesPa;
   const surfacePressure = profiles.liquidPressurePa[0] as number;
   const surfaceStrength = profiles.tensileStrengthPa[0] as number;
@@ -262,7 +372,7 @@ export function evaluateElement(
     marginPa: risk.marginPa,
     utilizationState: risk.state,
     surfaceStressPa: stress.surfaceStressPa,
-    stressReference: reference,
+    stressReference: config.stressReference ?? DEFAULT_STRESS_REFERENCE,
     stressReferenceTimeS,
     surfaceTensileStrengthPa: surfaceStrength,
     surfaceCompressiveStrengthPa: profiles.compressiveStrengthPa[0] as number,
