@@ -35,6 +35,7 @@ import type { ElementModel } from './elementModel.ts';
 import type { ElementState } from './elementState.ts';
 import { DEFAULT_STRESS_REFERENCE, type StressReference } from './stressReference.ts';
 import { createAgeTable, type AgeTable } from './_ageTable.ts';
+import { sharedByParameters } from './_sharedByParameters.ts';
 import {
   DEFAULT_TARGET_COMPRESSIVE_STRENGTH_MPA,
   strengthForecast,
@@ -51,10 +52,9 @@ type Mix = NonNullable<ElementModel['material']['mix']>;
  * (_ageTable.ts, within about 1e-5 of the laws): evaluating them for every cell of every figure
  * cost about half of the figures.
  */
-const lawsOfMix = new WeakMap<Mix, AgeTable>();
 function lawsAtAge(mix: Mix): AgeTable {
-  let table = lawsOfMix.get(mix);
-  if (table === undefined) {
+  // One table per mix for every model of it (_sharedByParameters.ts).
+  return sharedByParameters('figure-laws', mix, () => {
     // The table fills a node by calling each law at its age in turn: both strengths come from
     // one evaluation of the law.
     let strengthAgeS = Number.NaN;
@@ -66,14 +66,12 @@ function lawsAtAge(mix: Mix): AgeTable {
       }
       return strength;
     };
-    table = createAgeTable([
+    return createAgeTable([
       (ageS) => strengthAt(ageS).tensileStrengthMPa * 1e6,
       (ageS) => strengthAt(ageS).compressiveStrengthMPa * 1e6,
       (ageS) => schindlerFolliardDegreeOfHydration(ageS, mix.hydration),
     ]);
-    lawsOfMix.set(mix, table);
-  }
-  return table;
+  });
 }
 
 /** Depth profiles at one instant, index 0 at the exposed surface. SI units. */

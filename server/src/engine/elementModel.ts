@@ -35,6 +35,7 @@ import { createPoreHydraulics, type PoreHydraulics } from './poreHydraulics.ts';
 import { advanceTransport, type StepCheck, type StepControlOptions } from './stepController.ts';
 import { nextFilmTrialS, type FilmTrial } from './_filmStepSize.ts';
 import { createAgeTable } from './_ageTable.ts';
+import { sharedByParameters } from './_sharedByParameters.ts';
 import { createHumidityFactorTable } from './_humidityFactorTable.ts';
 import { defaultSettingDepthM, hasReachedFinalSet, settingCellIndex } from './stressReference.ts';
 import {
@@ -173,7 +174,7 @@ export function createElementModel(config: ElementModelConfig): ElementModel {
     return material.porosity / waterBulkModulus + material.biotCoefficient ** 2 / drainedBulkPa;
   };
   // Storage and refinement targets depend on a cell's equivalent age alone: tabulated in
-  // ln(age) (see _ageTable.ts) so that every cell can be checked after every step cheaply.
+  // log2Linear(age) (see _ageTable.ts) so that every cell can be checked after every step cheaply.
   const mixForScale = material.mix;
   const refinementScale = (ageS: number): number =>
     refinementOn && mixForScale !== undefined
@@ -182,7 +183,21 @@ export function createElementModel(config: ElementModelConfig): ElementModel {
           schindlerFolliardDegreeOfHydration(ageS, mixForScale.hydration),
         )
       : 1;
-  const targetsAtAge = createAgeTable([specificStorage, refinementScale]);
+  // Shared by every model of the same mix and parameters (_sharedByParameters.ts): a new model
+  // of a known material finds the nodes its predecessors filled.
+  const targetsAtAge = sharedByParameters(
+    'age-targets',
+    {
+      mix: material.mix ?? null,
+      fixedModulusPa: material.fixedStrength?.modulusPa ?? null,
+      porosity: material.porosity,
+      poissonRatio: material.poissonRatio,
+      biotCoefficient: material.biotCoefficient,
+      waterBulkModulus,
+      refinementOn,
+    },
+    () => createAgeTable([specificStorage, refinementScale]),
+  );
   const targets = targetsAtAge.values;
 
   const applyState = (state: ElementState): void => {
@@ -513,7 +528,9 @@ export function createElementModel(config: ElementModelConfig): ElementModel {
   };
 
   // Hydration humidity factor against x = -p / A = -ln h (see _humidityFactorTable.ts).
-  const humidityFactor = createHumidityFactorTable(humidityOptions);
+  const humidityFactor = sharedByParameters('humidity-factor', humidityOptions, () =>
+    createHumidityFactorTable(humidityOptions),
+  );
   const inverseKelvin = hydraulics.inverseKelvinPerPa;
 
   const updateMaturity = (state: ElementState, stepS: number): void => {

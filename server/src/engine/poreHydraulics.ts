@@ -21,6 +21,7 @@ import {
 import { GAS_CONSTANT_J_PER_MOL_K, WATER_MOLAR_MASS_KG_PER_MOL } from '../physics/units.ts';
 import type { CellHydraulics } from './hydraulics.ts';
 import { buildHydraulicTable, valueAtFirstNode } from './_hydraulicTable.ts';
+import { sharedByParameters } from './_sharedByParameters.ts';
 import { exp2Linear, log2Linear, log2LinearSlopeFactor } from './_log2Linear.ts';
 import {
   waterPropertiesAt,
@@ -162,16 +163,38 @@ export function createPoreHydraulics(options: PoreHydraulicsOptions): PoreHydrau
   const n = options.cellCount;
   const referenceK = options.referenceTemperatureK ?? 293.15;
   const referenceTension = waterSurfaceTensionNPerM(referenceK);
-  const retention = retentionFromPoreSizes(options.poreSizes, referenceTension);
-  const permeability = capillaryBundlePermeability(retention, {
-    porosity: options.porosity,
-    tortuosity: options.tortuosity,
-    ...(options.saturatedPermeabilityM2 === undefined
-      ? {}
-      : { saturatedPermeabilityM2: options.saturatedPermeabilityM2 }),
-  });
-  const equivalentPressure = equivalentPorePressureCurve(retention);
-  const table = buildHydraulicTable(retention, permeability);
+  // The curves and tables of the material, shared by every model of the same pores
+  // (_sharedByParameters.ts): built once per process, about 1.4 ms.
+  const curves = sharedByParameters(
+    'pore-hydraulics',
+    {
+      poreSizes: options.poreSizes,
+      porosity: options.porosity,
+      tortuosity: options.tortuosity,
+      saturatedPermeabilityM2: options.saturatedPermeabilityM2 ?? null,
+      referenceK,
+    },
+    () => {
+      const retention = retentionFromPoreSizes(options.poreSizes, referenceTension);
+      const permeability = capillaryBundlePermeability(retention, {
+        porosity: options.porosity,
+        tortuosity: options.tortuosity,
+        ...(options.saturatedPermeabilityM2 === undefined
+          ? {}
+          : { saturatedPermeabilityM2: options.saturatedPermeabilityM2 }),
+      });
+      const table = buildHydraulicTable(retention, permeability);
+      return {
+        retention,
+        permeability,
+        equivalentPressure: equivalentPorePressureCurve(retention),
+        table,
+        // pi at the table's nodes, NaN until a look-up needs it (see equivalentAtNode below).
+        equivalentNodes: new Float64Array(table.nodeCount).fill(Number.NaN),
+      };
+    },
+  );
+  const { retention, permeability, equivalentPressure, table, equivalentNodes } = curves;
   const tableSaturation = table.saturation;
   const tablePermeability = table.permeabilityM2;
   const lastNode = table.nodeCount - 1;
@@ -181,10 +204,10 @@ export function createPoreHydraulics(options: PoreHydraulicsOptions): PoreHydrau
   const coordinateStart = table.coordinateStart;
   const inverseStep = table.inverseStep;
   const step = 1 / inverseStep;
-  // pi at the saturation table's nodes, filled the first time a look-up needs them (a whole
-  // table would cost 0.4 ms per model): linear in v = log2Linear(suction) between nodes, within 2e-6 of
-  // the curve (test/engine/poreHydraulics.test.ts), like the saturation it is read beside.
-  const equivalentNodes = new Float64Array(table.nodeCount).fill(Number.NaN);
+  // pi at the saturation table's nodes, filled the first time a look-up needs them (all of them
+  // would cost 0.4 ms) and kept with the material's curves: linear in v = log2Linear(suction)
+  // between nodes, within 2e-6 of the curve (test/engine/poreHydraulics.test.ts), like the
+  // saturation it is read beside.
   const equivalentAtNode = (node: number): number => {
     let value = equivalentNodes[node] as number;
     if (Number.isNaN(value)) {
