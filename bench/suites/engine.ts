@@ -87,7 +87,7 @@ function onceTimed(
  * Nanoseconds per cell of one bare Thomas solve: the best of 9 batches (the machine is shared, so
  * the baseline, like the runs, takes the minimum: a busy neighbour only ever adds time).
  */
-function thomasNsPerCell(cellCount: number): number {
+function thomasNsPerCell(cellCount: number, batches = 9): number {
   const make = (value: number): Float64Array => new Float64Array(cellCount).fill(value);
   const lower = make(-1);
   const diagonal = make(2.5);
@@ -99,7 +99,7 @@ function thomasNsPerCell(cellCount: number): number {
   for (let i = 0; i < repetitions; i += 1)
     solveTridiagonal(lower, diagonal, upper, rightHandSide, solution, scratch);
   let best = Number.POSITIVE_INFINITY;
-  for (let batch = 0; batch < 9; batch += 1) {
+  for (let batch = 0; batch < batches; batch += 1) {
     const start = cpuNowMs();
     for (let i = 0; i < repetitions; i += 1) {
       rightHandSide[0] = 1 + (solution[cellCount - 1] ?? 0) * 1e-9; // keep the work observable
@@ -108,6 +108,29 @@ function thomasNsPerCell(cellCount: number): number {
     best = Math.min(best, ((cpuNowMs() - start) * 1e6) / (repetitions * cellCount));
   }
   return best;
+}
+
+/**
+ * Whole-model runs against the bare solve, in alternating blocks: three rounds of (three bare
+ * Thomas batches, seven 24 h runs back to back), the best of each side over all rounds kept. On
+ * the shared machine a slow spell (other tenants, frequency changes) lasts seconds: timing all
+ * runs after all baselines let one bench's ratio swing from 19 to 30 for the same code, and
+ * timing a baseline batch before every single run left each run with cold caches (30 to 37).
+ */
+function alternatingRuns(shared?: ReturnType<typeof createModel>): {
+  runNs: number;
+  bareNs: number;
+  steps: number;
+  ms: number;
+} {
+  let bareNs = Number.POSITIVE_INFINITY;
+  let best = { ms: Number.POSITIVE_INFINITY, steps: 0 };
+  for (let round = 0; round < 3; round += 1) {
+    bareNs = Math.min(bareNs, thomasNsPerCell(60, 3));
+    const run = timedRun(60, 24, 7, shared);
+    if (run.ms < best.ms) best = run;
+  }
+  return { runNs: (best.ms * 1e6) / (best.steps * 60), bareNs, steps: best.steps, ms: best.ms };
 }
 
 /** Least-squares slope of ln(y) against ln(x). */
@@ -163,20 +186,19 @@ function transportStepNsPerCell(cellCount: number): { ns: number; iterations: nu
 
 const suite: BenchSuite = async () => {
   timedRun(60, 24, 2); // warm-up (JIT): two whole runs, so the timed runs meet optimised code
-  const bareNsBefore = thomasNsPerCell(60);
-  const reference = timedRun(60, 24, 21);
-  const nsPerCellStep = (reference.ms * 1e6) / (reference.steps * 60);
+  const reference = alternatingRuns();
   // Ensemble members share one model (and its filled look-up tables): every run after the first
   // on the same model is what each member of the live engine costs.
   const sharedModel = createModel(60);
-  const shared = timedRun(60, 24, 21, sharedModel);
-  const sharedNsPerCellStep = (shared.ms * 1e6) / (shared.steps * 60);
+  const shared = alternatingRuns(sharedModel);
   // The isolated transport step comes last: its synthetic surface condition (a constant flux
   // closure) makes the solver's call site polymorphic, and measured first it left the whole-model
   // runs after it at 29 times the bare solve instead of 21 (V8 keeps the less specialised code).
   const transport = transportStepNsPerCell(60);
-  // The baseline is measured before and after the runs and the faster kept (see thomasNsPerCell).
-  const bareNs = Math.min(bareNsBefore, thomasNsPerCell(60));
+  const bareNs = thomasNsPerCell(60);
+  const machine = `load average ${loadavg()[0]?.toFixed(1)} on ${availableParallelism()} cores`;
+  const blocks = (run: ReturnType<typeof alternatingRuns>) =>
+    `best of 21 runs against the best of 9 bare Thomas batches (${run.bareNs.toFixed(1)} ns per cell), in three alternating rounds`;
   const figures: BenchFigure[] = [
     ratioFigure({
       name: 'engine.transportStepCostPerCellVsTridiagonal',
@@ -185,25 +207,25 @@ const suite: BenchSuite = async () => {
       baseline: bareNs,
       target: 'ratio <= 20',
       met: transport.ns / bareNs <= 20,
-      detail: `one backward-Euler step of 300 s at a drying front, 60 cells, ${transport.iterations} Newton iterations (each: one bulk property evaluation with analytic dK/dp, and the system eliminated as it is assembled) plus the final mass check on the water content alone; CPU time, best of 5 batches; load average ${loadavg()[0]?.toFixed(1)} on ${availableParallelism()} cores`,
+      detail: `one backward-Euler step of 300 s at a drying front, 60 cells, ${transport.iterations} Newton iterations (each: one bulk property evaluation with analytic dK/dp, and the system eliminated as it is assembled) plus the final mass check on the water content alone; CPU time, best of 5 batches against the best of 9 bare batches; ${machine}`,
     }),
     ratioFigure({
       name: 'engine.costPerCellStepVsTridiagonal',
-      value: nsPerCellStep,
+      value: reference.runNs,
       unit: 'ns per cell-step',
-      baseline: bareNs,
+      baseline: reference.bareNs,
       target: 'ratio <= 20',
-      met: nsPerCellStep / bareNs <= 20,
-      detail: `whole model, CPU time, best of 21 (each run builds its model, untimed, so the runs include filling the model's lazily filled tables: age laws, humidity factor, equivalent pore pressure, figure laws; the water-property table is shared by the process): 24 h of daily weather, normal-concrete, 150 mm, 60 cells: ${reference.steps} steps in ${reference.ms.toFixed(0)} ms (each step: 2 to 3 Newton iterations, each a bulk property evaluation and an elimination, a mass check on the water content, then maturity and refinement with the remap that keeps each cell's water; each 15 min interval: the surface set-up and the remap after the temperatures change; each hour: the figures); load average ${loadavg()[0]?.toFixed(1)} on ${availableParallelism()} cores`,
+      met: reference.runNs / reference.bareNs <= 20,
+      detail: `whole model, CPU time, ${blocks(reference)}; each run builds its model, untimed, so the runs include filling the model's lazily filled tables (those a new model of a known preset shares are filled once per process: age laws, humidity factor, equivalent pore pressure, figure laws, water properties): 24 h of daily weather, normal-concrete, 150 mm, 60 cells: ${reference.steps} steps in ${reference.ms.toFixed(1)} ms (each step: 2 to 3 Newton iterations, each a bulk property evaluation and an elimination, a mass check on the water content, then maturity and refinement with the remap that keeps each cell's water; each 15 min interval: the surface set-up and the remap after the temperatures change; each hour: the figures); ${machine}`,
     }),
     ratioFigure({
       name: 'engine.costPerCellStepSharedModelVsTridiagonal',
-      value: sharedNsPerCellStep,
+      value: shared.runNs,
       unit: 'ns per cell-step',
-      baseline: bareNs,
+      baseline: shared.bareNs,
       target: 'ratio <= 20',
-      met: sharedNsPerCellStep / bareNs <= 20,
-      detail: `the same whole-model run on one shared model (as the members of an ensemble run), CPU time, best of 21: ${shared.steps} steps in ${shared.ms.toFixed(1)} ms`,
+      met: shared.runNs / shared.bareNs <= 20,
+      detail: `the same whole-model run on one shared model (as the members of an ensemble run), CPU time, ${blocks(shared)}: ${shared.steps} steps in ${shared.ms.toFixed(1)} ms`,
     }),
   ];
   const cellCounts = [30, 60, 120, 240, 480];

@@ -56,8 +56,11 @@ const POWERS_OF_TWO = Float64Array.from({ length: 2046 }, (_, index) => 2 ** (in
  */
 export function exp2Linear(coordinate: number): number {
   const exponent = Math.floor(coordinate);
-  const power = POWERS_OF_TWO[exponent + 1022];
-  return power === undefined ? Number.NaN : (1 + (coordinate - exponent)) * power;
+  const index = exponent + 1022;
+  // An explicit range check: a read past the table's end would return undefined and leave the
+  // optimised code handling two types.
+  if (!(index >= 0 && index < 2046)) return Number.NaN;
+  return (1 + (coordinate - exponent)) * (POWERS_OF_TWO[index] as number);
 }
 
 /**

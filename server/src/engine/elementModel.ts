@@ -154,7 +154,6 @@ export function createElementModel(config: ElementModelConfig): ElementModel {
   // and the Arrhenius factor only changes with them.
   const maturityRateForK = new Float64Array(n).fill(Number.NaN);
   const newTemperatureK = new Float64Array(n);
-  const remapCell = new Uint8Array(n);
 
   const specificStorage = (equivalentAgeS: number): number => {
     let modulusPa: number;
@@ -539,7 +538,8 @@ export function createElementModel(config: ElementModelConfig): ElementModel {
     const ages = state.equivalentAgeS;
     const storages = state.specificStoragePerPa;
     const scales = state.diameterScale;
-    let update = false;
+    // The water of the step's last evaluation (the workspace holds it): a moved cell keeps it.
+    const water = workspace.water;
     for (let i = 0; i < n; i += 1) {
       const pressure = pressures[i] as number;
       let rate = maturityRate[i] as number;
@@ -559,15 +559,14 @@ export function createElementModel(config: ElementModelConfig): ElementModel {
       ) {
         storages[i] = storage;
         scales[i] = scale;
-        remapCell[i] = 1;
-        update = true;
-      } else {
-        remapCell[i] = 0;
+        pressures[i] = hydraulics.rescaleCellKeepingWater(
+          i,
+          scale,
+          storage,
+          water[i] as number,
+          pressure,
+        );
       }
-    }
-    // The moved cells keep the water of the step's last evaluation (the workspace holds it).
-    if (update) {
-      hydraulics.rescaleKeepingWater(remapCell, scales, storages, workspace.water, pressures);
     }
   };
 

@@ -110,19 +110,19 @@ export interface PoreHydraulics extends CellHydraulics {
     previousScale: number,
   ): number;
   /**
-   * For every cell with `marks[i]` = 1: takes the pore-diameter factor `scales[i]` and the
-   * specific storage `storages[i]` (1/Pa) and moves `pressures[i]` (Pa, read and written) so the
-   * cell keeps the water content `water[i]` (m3/m3): what writing `diameterScale` and
-   * `specificStoragePerPa`, `refreshScale()` and {@link pressureKeepingWater} do, in one pass over
-   * the marked cells only (the element model does it for the cells hydration refined).
+   * Gives cell i the pore-diameter factor `scale` and the specific storage `storage` (1/Pa) and
+   * returns the pressure (Pa) at which it keeps the water content `water` (m3/m3) it held at
+   * `pressurePa`: what writing `diameterScale` and `specificStoragePerPa`, `refreshScale()` and
+   * {@link pressureKeepingWater} do, for one cell (the element model calls it for each cell
+   * hydration refined, in the loop that finds them).
    */
-  rescaleKeepingWater(
-    marks: Uint8Array,
-    scales: Float64Array,
-    storages: Float64Array,
-    water: Float64Array,
-    pressures: Float64Array,
-  ): void;
+  rescaleCellKeepingWater(
+    cell: number,
+    scale: number,
+    storage: number,
+    water: number,
+    pressurePa: number,
+  ): number;
   /** The water content (and storage) alone, as evaluate() gives them (see CellHydraulics). */
   waterContents(
     pressurePa: Float64Array,
@@ -445,19 +445,15 @@ export function createPoreHydraulics(options: PoreHydraulicsOptions): PoreHydrau
       }
       return changed;
     },
-    rescaleKeepingWater(marks, scales, storages, water, pressures) {
-      for (let i = 0; i < n; i += 1) {
-        if (marks[i] === 0) continue;
-        const previousScale = pressureScale[i] as number;
-        const scale = scales[i] as number;
-        diameterScale[i] = scale;
-        specificStoragePerPa[i] = storages[i] as number;
-        const pressureScaleOfCell = scale * (tensionRatio[i] as number);
-        pressureScale[i] = pressureScaleOfCell;
-        inverseScale[i] = 1 / pressureScaleOfCell;
-        liquidFactor[i] = scale * scale * multiplier * (inverseViscosity[i] as number);
-        pressures[i] = keepWater(i, water[i] as number, pressures[i] as number, previousScale);
-      }
+    rescaleCellKeepingWater(cell, scale, storage, water, pressurePa) {
+      const previousScale = pressureScale[cell] as number;
+      diameterScale[cell] = scale;
+      specificStoragePerPa[cell] = storage;
+      const pressureScaleOfCell = scale * (tensionRatio[cell] as number);
+      pressureScale[cell] = pressureScaleOfCell;
+      inverseScale[cell] = 1 / pressureScaleOfCell;
+      liquidFactor[cell] = scale * scale * multiplier * (inverseViscosity[cell] as number);
+      return keepWater(cell, water, pressurePa, previousScale);
     },
     equivalentPorePressurePa(cell, pressurePa) {
       const scale = pressureScale[cell] as number;
