@@ -212,6 +212,25 @@ describe('createPoreHydraulics()', () => {
     );
   });
 
+  it('fillProfiles() gives saturationAt(), relativeHumidity() and equivalentPorePressurePa() to the bit', () => {
+    const hydraulics = make();
+    hydraulics.diameterScale[1] = 0.4;
+    hydraulics.temperatureK[2] = 310.15;
+    hydraulics.refreshTemperature();
+    for (const logSuction of [2, 3.5, 4.5, 5.5, 6.5, 7.5, 8.5, 9.5]) {
+      const pressures = Float64Array.from([1e3, -(10 ** logSuction), -(10 ** (logSuction + 0.3))]);
+      const saturation: number[] = [];
+      const humidity: number[] = [];
+      const equivalent: number[] = [];
+      hydraulics.fillProfiles(pressures, saturation, humidity, equivalent);
+      pressures.forEach((pressure, cell) => {
+        expect(saturation[cell]).toBe(hydraulics.saturationAt(cell, pressure));
+        expect(humidity[cell]).toBe(hydraulics.relativeHumidity(cell, Math.min(0, pressure)));
+        expect(equivalent[cell]).toBe(hydraulics.equivalentPorePressurePa(cell, pressure));
+      });
+    }
+  });
+
   it('refined pores (diameters halved) need twice the suction for the same saturation', () => {
     const hydraulics = make();
     hydraulics.diameterScale[2] = 0.5;

@@ -323,12 +323,14 @@ export function evaluateElement(
   const pressures = state.transport.pressurePa;
   const ages = state.equivalentAgeS;
   const laws = mix === undefined ? undefined : lawsAtAge(mix);
+  hydraulics.fillProfiles(
+    pressures,
+    profiles.saturation,
+    profiles.relativeHumidity,
+    profiles.equivalentPorePressurePa,
+  );
   for (let i = 0; i < n; i += 1) {
-    const pressure = pressures[i] as number;
-    profiles.liquidPressurePa[i] = pressure;
-    profiles.saturation[i] = hydraulics.saturationAt(i, pressure);
-    profiles.relativeHumidity[i] = hydraulics.relativeHumidity(i, Math.min(0, pressure));
-    profiles.equivalentPorePressurePa[i] = hydraulics.equivalentPorePressurePa(i, pressure);
+    profiles.liquidPressurePa[i] = pressures[i] as number;
     if (laws !== undefined) {
       laws.at(ages[i] as number);
       profiles.tensileStrengthPa[i] = laws.values[0] as number;

@@ -137,6 +137,17 @@ export interface PoreHydraulics extends CellHydraulics {
    * changed.
    */
   setTemperaturesKeepingWater(temperatures: Float64Array, pressures: Float64Array): boolean;
+  /**
+   * Fills, for every cell at `pressurePa[i]` (Pa), its saturation, pore relative humidity and
+   * equivalent pore pressure (Pa): what saturationAt(), relativeHumidity() of min(0, p) and
+   * equivalentPorePressurePa() give, in one pass (the figures' depth profiles).
+   */
+  fillProfiles(
+    pressurePa: Float64Array,
+    saturation: number[],
+    relativeHumidity: number[],
+    equivalentPressurePa: number[],
+  ): void;
   /** Equivalent pore pressure pi of cell i at liquid pressure p, Pa (Coussy 2004). */
   equivalentPorePressurePa(cell: number, pressurePa: number): number;
   /** Air-entry pressure of cell i, Pa (< 0). */
@@ -491,6 +502,33 @@ export function createPoreHydraulics(options: PoreHydraulicsOptions): PoreHydrau
         const stored = storageCoefficient * airEntryRef * (inverseScale[i] as number);
         water[i] = porosity * s + stored;
         if (wantStorage) storageContent[i] = stored;
+      }
+    },
+    fillProfiles(pressurePa, saturation, relativeHumidity, equivalentPressurePa) {
+      // saturationAt(), relativeHumidity() and equivalentPorePressurePa() of every cell, term for
+      // term (the same bits), with one table position per cell for both tables.
+      for (let i = 0; i < n; i += 1) {
+        const pressure = pressurePa[i] as number;
+        const scale = pressureScale[i] as number;
+        relativeHumidity[i] = Math.exp(Math.min(0, pressure) * (inverseKelvin[i] as number));
+        const reference = pressure * scale;
+        if (reference >= airEntryRef) {
+          saturation[i] = 1;
+          equivalentPressurePa[i] = equivalentPressure.fromLiquidPressure(reference) / scale;
+          continue;
+        }
+        const position = (log2Linear(-reference) - coordinateStart) * inverseStep;
+        if (position >= lastNode) {
+          saturation[i] = tableSaturation[lastNode] as number;
+          equivalentPressurePa[i] = equivalentPressure.fromLiquidPressure(reference) / scale;
+          continue;
+        }
+        const node = position > 0 ? Math.floor(position) : 0;
+        const weight = position - node;
+        const s0 = tableSaturation[node] as number;
+        saturation[i] = s0 + weight * ((tableSaturation[node + 1] as number) - s0);
+        const below = equivalentAtNode(node);
+        equivalentPressurePa[i] = (below + weight * (equivalentAtNode(node + 1) - below)) / scale;
       }
     },
     evaluate(pressurePa, water, capacityPerPa, conductivity, storageContent, conductivitySlope) {
