@@ -164,7 +164,9 @@ function stressOf(
   };
   const stressProfile = { depthsM, weightsM };
   const reference = config.stressReference ?? DEFAULT_STRESS_REFERENCE;
-  if (reference === 'placement') {
+  // From placement by choice, or set but never recorded (a version 1 snapshot not yet advanced):
+  // the placement profile.
+  if (reference === 'placement' || (state.stressReferencePa === null && phase === 'hardening')) {
     return {
       stress: dryingStressFromEquivalentPressure(
         stressProfile,
@@ -183,17 +185,6 @@ function stressOf(
         stressOptions,
       ),
       stressReferenceTimeS: state.stressReferenceTimeS,
-    };
-  }
-  if (phase === 'hardening') {
-    // Set but never recorded (a version 1 snapshot not yet advanced): the placement profile.
-    return {
-      stress: dryingStressFromEquivalentPressure(
-        stressProfile,
-        equivalentPressuresPa,
-        stressOptions,
-      ),
-      stressReferenceTimeS: Number.NaN,
     };
   }
   // Before final set the mix flows: no drying stress (the plastic criterion applies).

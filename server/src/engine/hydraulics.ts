@@ -25,12 +25,11 @@ export interface CellHydraulics {
     conductivitySlope?: Float64Array,
   ): boolean;
   /**
-   * Optional: fills only the water content (and, when `storageContent` is given, the part the
-   * specific storage holds) of every cell, with the same bits `evaluate()` gives for them. The
-   * solver's convergence check needs nothing else, so an implementation that can skip the
-   * conductivity, capacity and slope offers this.
+   * Fills only the water content (and, when `storageContent` is given, the part the specific
+   * storage holds) of every cell, with the same bits `evaluate()` gives for them: the solver's
+   * convergence check needs nothing else.
    */
-  waterContents?(
+  waterContents(
     pressurePa: Float64Array,
     waterContent: Float64Array,
     storageContent?: Float64Array,

@@ -179,27 +179,11 @@ export function implicitStep(
 
   let surfaceInflowM = 0;
   let pendingCheck = false;
-  // The convergence check needs only the water content; the coefficients are computed after it
-  // only when the step goes on (hydraulics that offer waterContents()).
-  const waterOnly = hydraulics.waterContents !== undefined;
+  // The convergence check needs only the water content; the coefficients at an iterate are
+  // computed after it, and only when the step goes on.
   for (let iteration = 1; iteration <= maxIterations + 1; iteration += 1) {
-    const checkFirst = pendingCheck && waterOnly;
-    if (iteration > 1) {
-      if (checkFirst) {
-        (hydraulics as Required<CellHydraulics>).waterContents(iterate, water, storage);
-      } else {
-        analyticSlope =
-          hydraulics.evaluate(
-            iterate,
-            water,
-            capacity,
-            conductivity,
-            pendingCheck ? storage : undefined,
-            newton ? conductivitySlope : undefined,
-          ) === true;
-      }
-    }
     if (pendingCheck) {
+      hydraulics.waterContents(iterate, water, storage);
       let waterChangeM = 0;
       let storageWaterM = 0;
       for (let i = 0; i < n; i += 1) {
@@ -223,17 +207,18 @@ export function implicitStep(
           massDefectM,
         };
       }
-      if (checkFirst) {
-        analyticSlope =
-          hydraulics.evaluate(
-            iterate,
-            water,
-            capacity,
-            conductivity,
-            undefined,
-            newton ? conductivitySlope : undefined,
-          ) === true;
-      }
+    }
+    if (iteration > 1) {
+      // The first iteration uses the evaluation at the old pressure, made above.
+      analyticSlope =
+        hydraulics.evaluate(
+          iterate,
+          water,
+          capacity,
+          conductivity,
+          undefined,
+          newton ? conductivitySlope : undefined,
+        ) === true;
     }
     if (iteration > maxIterations) break;
 

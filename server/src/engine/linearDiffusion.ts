@@ -49,6 +49,12 @@ export function linearDiffusionHydraulics(
       }
       return false;
     },
+    waterContents(pressurePa, waterContent, storageContent) {
+      for (let i = 0; i < pressurePa.length; i += 1) {
+        waterContent[i] = porosityValue * (1 + (pressurePa[i] as number) / pressureScalePa);
+        if (storageContent !== undefined) storageContent[i] = 0;
+      }
+    },
     pressureFromSaturation(saturationValue) {
       return (saturationValue - 1) * pressureScalePa;
     },

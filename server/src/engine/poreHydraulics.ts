@@ -123,12 +123,6 @@ export interface PoreHydraulics extends CellHydraulics {
     water: number,
     pressurePa: number,
   ): number;
-  /** The water content (and storage) alone, as evaluate() gives them (see CellHydraulics). */
-  waterContents(
-    pressurePa: Float64Array,
-    waterContent: Float64Array,
-    storageContent?: Float64Array,
-  ): void;
   /**
    * Takes the cell temperatures `temperatures` (K) and moves `pressures` (Pa, read and written)
    * so every cell whose temperature changed keeps its water content: writing `temperatureK`,
@@ -236,20 +230,17 @@ export function createPoreHydraulics(options: PoreHydraulicsOptions): PoreHydrau
     }
     return value;
   };
-  // Scratch of the interpolation (module-free, no allocation per call).
-  let lookupSaturation = 1;
-  /** Interpolates the saturation table at a reference pressure below the air entry. */
-  const lookup = (referencePa: number): void => {
+  /**
+   * The saturation table at a reference pressure below the air entry (Pa): the one look-up of
+   * the saturation alone, so that saturationAt(), waterContentAt() and waterContents() give the
+   * same bits as evaluate().
+   */
+  const saturationBelowAirEntry = (referencePa: number): number => {
     const position = (log2Linear(-referencePa) - coordinateStart) * inverseStep;
-    if (position >= lastNode) {
-      lookupSaturation = tableSaturation[lastNode] as number;
-      return;
-    }
+    if (position >= lastNode) return tableSaturation[lastNode] as number;
     const node = position > 0 ? Math.floor(position) : 0;
-    const weight = position - node;
     const s0 = tableSaturation[node] as number;
-    const s1 = tableSaturation[node + 1] as number;
-    lookupSaturation = s0 + weight * (s1 - s0);
+    return s0 + (position - node) * ((tableSaturation[node + 1] as number) - s0);
   };
   let multiplier = options.permeabilityMultiplier ?? 1;
   const vapourOn = options.vapourDiffusion ?? true;
@@ -325,16 +316,7 @@ export function createPoreHydraulics(options: PoreHydraulicsOptions): PoreHydrau
     const reference = pressurePa * (pressureScale[cell] as number);
     const storageCoefficient = specificStoragePerPa[cell] as number;
     if (reference >= airEntryRef) return porosity + storageCoefficient * pressurePa;
-    // The same expressions as evaluate(), so both give the same bits.
-    const position = (log2Linear(-reference) - coordinateStart) * inverseStep;
-    let s: number;
-    if (position >= lastNode) {
-      s = tableSaturation[lastNode] as number;
-    } else {
-      const node = position > 0 ? Math.floor(position) : 0;
-      const s0 = tableSaturation[node] as number;
-      s = s0 + (position - node) * ((tableSaturation[node + 1] as number) - s0);
-    }
+    const s = saturationBelowAirEntry(reference);
     return porosity * s + storageCoefficient * airEntryRef * (inverseScale[cell] as number);
   };
 
@@ -428,8 +410,7 @@ export function createPoreHydraulics(options: PoreHydraulicsOptions): PoreHydrau
     saturationAt(cell, pressurePa) {
       const reference = pressurePa * (pressureScale[cell] as number);
       if (reference >= airEntryRef) return 1;
-      lookup(reference);
-      return lookupSaturation;
+      return saturationBelowAirEntry(reference);
     },
     waterContentAt(cell, pressurePa) {
       return waterContent(cell, pressurePa);
@@ -490,17 +471,8 @@ export function createPoreHydraulics(options: PoreHydraulicsOptions): PoreHydrau
           if (wantStorage) storageContent[i] = stored;
           continue;
         }
-        const position = (log2Linear(-pressure * scale) - coordinateStart) * inverseStep;
-        let s: number;
-        if (position >= lastNode) {
-          s = tableSaturation[lastNode] as number;
-        } else {
-          const node = position > 0 ? Math.floor(position) : 0;
-          const s0 = tableSaturation[node] as number;
-          s = s0 + (position - node) * ((tableSaturation[node + 1] as number) - s0);
-        }
         const stored = storageCoefficient * airEntryRef * (inverseScale[i] as number);
-        water[i] = porosity * s + stored;
+        water[i] = porosity * saturationBelowAirEntry(pressure * scale) + stored;
         if (wantStorage) storageContent[i] = stored;
       }
     },
