@@ -32,8 +32,8 @@ import type { ElementState } from './elementState.ts';
 import { buildDepthGrid, domainDepthM, type DepthGrid } from './grid.ts';
 import { createWorkspace, type SurfaceCondition } from './implicitStep.ts';
 import { createPoreHydraulics, type PoreHydraulics } from './poreHydraulics.ts';
-import { advanceTransport, type StepCheck, type StepControlOptions } from './stepController.ts';
-import { nextFilmTrialS, type FilmTrial } from './_filmStepSize.ts';
+import { advanceTransport, type StepControlOptions } from './stepController.ts';
+import { createFilmStepCheck, FILM_FLOOR_KG_M2 } from './_filmStepCheck.ts';
 import { createAgeTable } from './_ageTable.ts';
 import { sharedByParameters } from './_sharedByParameters.ts';
 import { createHumidityFactorTable } from './_humidityFactorTable.ts';
@@ -49,26 +49,6 @@ export type {
   ElementModelOptions,
   InitialStateOverrides,
 } from './elementModelConfig.ts';
-
-/**
- * Film below which the rest of a bleed film is counted as evaporated and the surface is exposed,
- * kg/m2 (our assumption: a nanometre of water, far below any figure the tool shows; it keeps a
- * vanishing film from asking for ever shorter steps).
- */
-const FILM_FLOOR_KG_M2 = 1e-9;
-/**
- * A film step that runs the film out may use up to this fraction more or less than the film
- * (our assumption): more only as evaporation the step could not have (the film ran out just
- * before the end), never as water drawn into the body.
- */
-const FILM_TOLERANCE = 0.1;
-/** Most retries of one film step before its film is ended (our assumption). */
-const FILM_MAX_TRIALS = 40;
-/**
- * Shortest film step as a fraction of the model time (at least 1 s), below which the film is
- * ended: about 4500 times the rounding of a double, so the step still moves the time.
- */
-const FILM_SHORTEST_STEP_FRACTION = 1e-12;
 
 /** A ready element model: shared by every state (ensemble member) of the element. */
 export interface ElementModel {
@@ -280,14 +260,11 @@ export function createElementModel(config: ElementModelConfig): ElementModel {
   };
   const absorbing: SurfaceCondition = { kind: 'outflow', volumeFluxMs: absorbingFlux };
   const saturatedSurface: SurfaceCondition = { kind: 'pressure', pressurePa: 0 };
-  // Start time of a step that must be exposed although bleeding outpaces evaporation: the body
-  // draws in more than the bleeding brings, so no film forms (NaN: none).
-  let exposedFromS = Number.NaN;
   const surfaceAt = (endS: number): SurfaceCondition => {
     const surface = evaporation as SurfaceEvaporation;
     const state = stepState as ElementState;
     bleedRate = mix !== undefined && endS <= mix.bleedingDurationS ? mix.bleedRateKgM2s : 0;
-    const forcedExposed = state.transport.timeS === exposedFromS;
+    const forcedExposed = filmCheck.forcedExposedAt(state.transport.timeS);
     if (surface.heldSaturated) mode = 'covered';
     else if (
       !forcedExposed &&
@@ -300,120 +277,14 @@ export function createElementModel(config: ElementModelConfig): ElementModel {
     return forcedExposed ? absorbing : outflow;
   };
 
-  // The search for a film step that uses no more water than the film holds (physics.md
-  // section 4: the film, not the body, is saturated; the body can only take the film's water).
-  // A trial whose film water `need` (inflow, plus evaporation, less bleeding) exceeds the film by
-  // more than FILM_TOLERANCE, or whose inflow alone exceeds film plus bleeding, is retried
-  // shorter; a retry is accepted once the film runs out within FILM_TOLERANCE of its end.
-  let searchFromS = Number.NaN;
-  const shortTrial: FilmTrial = { stepS: 0, needKgM2: 0 };
-  const longTrial: FilmTrial = { stepS: 0, needKgM2: 0 };
-  const longTrialBefore: FilmTrial = { stepS: 0, needKgM2: 0 };
-  let longTrials = 0;
-  let searchTrials = 0;
-  let exponentOfSearch = Number.NaN;
-  // The next step's length after a searched step that left some film: the same absorption,
-  // continued until the rest is used (NaN: no guess).
-  let guessFromS = Number.NaN;
-  let guessS = Number.NaN;
-  const endFilm = (state: ElementState): void => {
-    // What is left is too little to resolve: counted as evaporated, and the surface is exposed.
-    state.evaporatedKgM2 += state.bleedFilmKgM2;
-    state.bleedFilmKgM2 = 0;
-    exposedFromS = state.transport.timeS;
-  };
-  const filmCheck: StepCheck = {
-    longestStepS: (timeS) => (timeS === guessFromS ? guessS : Number.POSITIVE_INFINITY),
-    retryStepS: (stepS, result) => {
-      if (mode !== 'film') return Number.POSITIVE_INFINITY;
-      const state = stepState as ElementState;
-      const surface = evaporation as SurfaceEvaporation;
-      const timeS = state.transport.timeS;
-      const filmKgM2 = state.bleedFilmKgM2;
-      const inflowKgM2 = result.surfaceInflowM * liquidDensity;
-      const bledKgM2 = bleedRate * stepS;
-      const needKgM2 = inflowKgM2 + surface.potentialKgM2s * stepS - bledKgM2;
-      const overdrawn = inflowKgM2 > filmKgM2 + bledKgM2;
-      if (filmKgM2 <= FILM_FLOOR_KG_M2) {
-        // Film mode only because bleeding outpaces evaporation: a body that draws in more than
-        // the bleeding brings takes it through an exposed surface instead.
-        if (!overdrawn) return Number.POSITIVE_INFINITY;
-        exposedFromS = timeS;
-        return stepS;
-      }
-      if (timeS !== searchFromS) {
-        searchFromS = timeS;
-        shortTrial.stepS = 0;
-        shortTrial.needKgM2 = 0;
-        longTrials = 0;
-        searchTrials = 0;
-      }
-      const tooLong = overdrawn || needKgM2 > (1 + FILM_TOLERANCE) * filmKgM2;
-      const searching = searchTrials > 0;
-      if (!tooLong && (!searching || needKgM2 >= (1 - FILM_TOLERANCE) * filmKgM2)) {
-        if (searching || timeS === guessFromS) rememberGuess(timeS, stepS, needKgM2, filmKgM2);
-        return Number.POSITIVE_INFINITY;
-      }
-      searchTrials += 1;
-      if (tooLong) {
-        if (longTrials > 0) {
-          longTrialBefore.stepS = longTrial.stepS;
-          longTrialBefore.needKgM2 = longTrial.needKgM2;
-        }
-        longTrial.stepS = stepS;
-        longTrial.needKgM2 = needKgM2;
-        longTrials += 1;
-      } else {
-        shortTrial.stepS = stepS;
-        shortTrial.needKgM2 = needKgM2;
-      }
-      const targetKgM2 = (1 - 0.5 * FILM_TOLERANCE) * filmKgM2;
-      const retryS = nextFilmTrialS(
-        shortTrial,
-        longTrial,
-        longTrials > 1 ? longTrialBefore : null,
-        targetKgM2,
-      );
-      exponentOfSearch =
-        shortTrial.stepS > 0 && shortTrial.needKgM2 > 0
-          ? Math.log(longTrial.needKgM2 / shortTrial.needKgM2) /
-            Math.log(longTrial.stepS / shortTrial.stepS)
-          : Number.NaN;
-      // A film that the body takes faster than model time can resolve, or a search that does
-      // not close, must not stall the run.
-      if (
-        searchTrials > FILM_MAX_TRIALS ||
-        !(retryS > FILM_SHORTEST_STEP_FRACTION * Math.max(1, timeS))
-      ) {
-        if (!tooLong) return Number.POSITIVE_INFINITY;
-        endFilm(state);
-        return stepS;
-      }
-      return retryS;
-    },
-  };
-  // What the last guess aimed to use, kg/m2, and a factor learnt from how far the guesses fell
-  // short or over (the absorption slows down as the surface wets, which the power law misses).
-  let guessNeedKgM2 = Number.NaN;
-  let guessCorrection = 1;
-  const rememberGuess = (
-    timeS: number,
-    stepS: number,
-    needKgM2: number,
-    filmKgM2: number,
-  ): void => {
-    const exponent = Math.min(2, Math.max(0.25, exponentOfSearch || 0.75));
-    const guided = timeS === guessFromS && stepS === guessS;
-    guessCorrection = guided
-      ? Math.min(5, Math.max(0.2, guessCorrection * (guessNeedKgM2 / needKgM2) ** (1 / exponent)))
-      : 1;
-    const restKgM2 = filmKgM2 - needKgM2;
-    guessFromS = Number.NaN;
-    if (!(restKgM2 > FILM_FLOOR_KG_M2) || !(needKgM2 > 0) || !(guessCorrection > 0)) return;
-    guessFromS = timeS + stepS;
-    guessNeedKgM2 = (1 - 0.5 * FILM_TOLERANCE) * restKgM2;
-    guessS = stepS * ((1 + guessNeedKgM2 / needKgM2) ** (1 / exponent) - 1) * guessCorrection;
-  };
+  // Holds a film step to the water the film and the bleeding hold (_filmStepCheck.ts).
+  const filmCheck = createFilmStepCheck({
+    inFilmMode: () => mode === 'film',
+    state: () => stepState as ElementState,
+    potentialKgM2s: () => (evaporation as SurfaceEvaporation).potentialKgM2s,
+    bleedRateKgM2s: () => bleedRate,
+    liquidDensityKgPerM3: liquidDensity,
+  });
 
   const onStep = (stepS: number, result: { surfaceInflowM: number }): void => {
     const state = stepState as ElementState;
@@ -491,9 +362,7 @@ export function createElementModel(config: ElementModelConfig): ElementModel {
     condensationFloor = -1e-4 * Math.abs(evaporation.signedRateKgM2s(1));
     stepState = state;
     // The film search belongs to one state's interval: members share this model.
-    searchFromS = Number.NaN;
-    guessFromS = Number.NaN;
-    exposedFromS = Number.NaN;
+    filmCheck.reset();
     try {
       advanceTransport(
         grid,
