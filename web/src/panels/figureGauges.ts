@@ -174,6 +174,12 @@ export function renderFigureGauges(
           ? 'no bleed film left: the surface is drying'
           : `film gone in about ${formatDurationH(state.bleedFilmRemainingH)}`,
     ),
+    // The probes cannot see a film: the figure is the model's, and the crew can check it.
+    el(
+      'p',
+      { class: 'detail' },
+      'estimated by the model (the probes cannot see a film): if bleed water still shows on the surface, the drying warnings may come early',
+    ),
   );
   const strengthCard = card(
     'gauge-strength',
