@@ -233,6 +233,7 @@ export function createElementModel(config: ElementModelConfig): ElementModel {
   // Context of the interval being advanced: the surface functions below are built once per
   // model (a closure made per call costs more than the work of a step under tsx) and read it.
   let stepState: ElementState | null = null;
+  let intervalEndS = 0;
   let evaporation: SurfaceEvaporation | null = null;
   let bleedRate = 0;
   let condensationFloor = 0;
@@ -315,6 +316,8 @@ export function createElementModel(config: ElementModelConfig): ElementModel {
     state.lastPotentialEvaporationKgM2s = surface.potentialKgM2s;
     advanceMaturity(state, stepS);
   };
+  const heldWater = new Float64Array(n);
+  const hooks = { onStep, check: filmCheck, heldWater };
 
   const advanceTo = (state: ElementState, timeS: number, inputs: BoundaryInputs): void => {
     checkBoundaryInputs(inputs);
@@ -325,11 +328,21 @@ export function createElementModel(config: ElementModelConfig): ElementModel {
       state.stressReferenceTimeS = Number.NaN;
     }
     fillCellTemperatures(inputs, grid.centresM, newTemperatureK);
-    // New temperatures change the water-content curves: the cells whose temperature changed move
-    // their pressures so they keep their water (mass conserved to rounding through the change).
-    if (hydraulics.setTemperaturesKeepingWater(newTemperatureK, state.transport.pressurePa)) {
-      state.temperatureK.set(newTemperatureK);
+    const pressures = state.transport.pressurePa;
+    if (!(timeS > state.transport.timeS)) {
+      // No step to take: the cells whose temperature changed move their pressures so they keep
+      // their water on the new curves (mass conserved to rounding through the change).
+      if (hydraulics.setTemperaturesKeepingWater(newTemperatureK, pressures)) {
+        state.temperatureK.set(newTemperatureK);
+      }
+      return;
     }
+    // The water each cell holds, on the curves its pressure was solved on; the new temperatures
+    // and the refinement of the last step (left until now, so a state between intervals has its
+    // pressures on its curves) change the curves, and the first step's balance keeps the water.
+    hydraulics.waterContents(pressures, heldWater);
+    if (hydraulics.setTemperatures(newTemperatureK)) state.temperatureK.set(newTemperatureK);
+    applyRefinement(state);
     for (let i = 0; i < n; i += 1) {
       const temperature = state.temperatureK[i] as number;
       if (temperature === maturityRateForK[i]) continue;
@@ -361,6 +374,7 @@ export function createElementModel(config: ElementModelConfig): ElementModel {
     // return to the surface (our assumption, a numerical regularisation of the clamp).
     condensationFloor = -1e-4 * Math.abs(evaporation.signedRateKgM2s(1));
     stepState = state;
+    intervalEndS = timeS;
     // The film search belongs to one state's interval: members share this model.
     filmCheck.reset();
     try {
@@ -372,8 +386,7 @@ export function createElementModel(config: ElementModelConfig): ElementModel {
         timeS,
         surfaceAt,
         stepOptions,
-        onStep,
-        filmCheck,
+        hooks,
       );
     } finally {
       stepState = null;
@@ -382,17 +395,18 @@ export function createElementModel(config: ElementModelConfig): ElementModel {
   };
 
   /**
-   * After an accepted step: equivalent age per cell, then the storage and refinement targets of
-   * its age; cells whose target moved by more than the update threshold take it, and their
-   * pressures move so they keep their water (the water content comes from the step's last
-   * evaluation, which the workspace holds). At the step in which the element passes final set,
-   * records the stress reference (after the pressures moved, so the stress is zero right then).
+   * After an accepted step: equivalent age per cell; at the step in which the element passes final
+   * set, records the stress reference (on the curves of the step, so the stress is zero right
+   * then); then, unless the step ends the interval, the refinement of the new ages. The pressures
+   * stay: the next step's balance keeps each cell's water (`heldWater`).
    */
   const advanceMaturity = (state: ElementState, stepS: number): void => {
-    updateMaturity(state, stepS);
+    if (mix === undefined) return;
+    advanceAges(state, stepS);
     if (state.stressReferencePa === null && elementHasSet(state)) {
       recordStressReference(hydraulics, state, state.transport.timeS);
     }
+    if (state.transport.timeS < intervalEndS) applyRefinement(state);
   };
 
   // Hydration humidity factor against x = -p / A = -ln h (see _humidityFactorTable.ts).
@@ -401,23 +415,30 @@ export function createElementModel(config: ElementModelConfig): ElementModel {
   );
   const inverseKelvin = hydraulics.inverseKelvinPerPa;
 
-  const updateMaturity = (state: ElementState, stepS: number): void => {
-    if (mix === undefined) return;
+  const advanceAges = (state: ElementState, stepS: number): void => {
     const pressures = state.transport.pressurePa;
     const ages = state.equivalentAgeS;
-    const storages = state.specificStoragePerPa;
-    const scales = state.diameterScale;
-    // The water of the step's last evaluation (the workspace holds it): a moved cell keeps it.
-    const water = workspace.water;
     for (let i = 0; i < n; i += 1) {
       const pressure = pressures[i] as number;
       let rate = maturityRate[i] as number;
       if (humidityFactorOn && pressure < 0) {
         rate *= humidityFactor.at(-pressure * (inverseKelvin[i] as number));
       }
-      const age = (ages[i] as number) + stepS * rate;
-      ages[i] = age;
-      targetsAtAge.at(age);
+      ages[i] = (ages[i] as number) + stepS * rate;
+    }
+  };
+
+  /**
+   * Storage and refinement targets of each cell's equivalent age: a cell whose target moved by
+   * more than the update threshold takes it (state and shared hydraulics).
+   */
+  const applyRefinement = (state: ElementState): void => {
+    if (mix === undefined) return;
+    const ages = state.equivalentAgeS;
+    const storages = state.specificStoragePerPa;
+    const scales = state.diameterScale;
+    for (let i = 0; i < n; i += 1) {
+      targetsAtAge.at(ages[i] as number);
       const storage = targets[0] as number;
       const scale = targets[1] as number;
       const storageNow = storages[i] as number;
@@ -428,13 +449,7 @@ export function createElementModel(config: ElementModelConfig): ElementModel {
       ) {
         storages[i] = storage;
         scales[i] = scale;
-        pressures[i] = hydraulics.rescaleCellKeepingWater(
-          i,
-          scale,
-          storage,
-          water[i] as number,
-          pressure,
-        );
+        hydraulics.rescaleCell(i, scale, storage);
       }
     }
   };

@@ -120,7 +120,10 @@ export function createWorkspace(cellCount: number): StepWorkspace {
 
 /**
  * Advances liquid pressure from `pressureOldPa` by `stepS` seconds (backward Euler) and writes the
- * result into `pressureNewPa`. Does not throw: a step that does not converge within
+ * result into `pressureNewPa`. The balance counts from `heldWater` (theta, m3/m3, per cell) when
+ * given: the water the cells hold, which differs from that of `pressureOldPa` on the current
+ * curves when the curves changed since the pressures were solved (refinement, temperature);
+ * otherwise from the water of `pressureOldPa`. Does not throw: a step that does not converge within
  * `maxIterations` returns `converged: false` and leaves `pressureNewPa` undefined in meaning (the
  * step controller then retries with a shorter step).
  *
@@ -139,6 +142,7 @@ export function implicitStep(
   stepS: number,
   surface: SurfaceCondition,
   options: ImplicitStepOptions = {},
+  heldWater?: Float64Array,
 ): StepResult {
   const maxIterations = options.maxIterations ?? 40;
   const relativeTolerance = options.pressureRelativeTolerance ?? 1e-4;
@@ -154,17 +158,17 @@ export function implicitStep(
   const { increment, scratch } = workspace;
 
   // The first iterate is the old pressure, so one evaluation serves both the old water content
-  // and the first iteration's coefficients.
+  // (unless the cells hold other water) and the first iteration's coefficients.
   let analyticSlope =
     hydraulics.evaluate(
       pressureOldPa,
-      waterOld,
+      water,
       capacity,
       conductivity,
       storageOld,
       newton ? conductivitySlope : undefined,
     ) === true;
-  water.set(waterOld);
+  waterOld.set(heldWater ?? water);
   let waterHeldM = 0;
   for (let i = 0; i < n; i += 1)
     waterHeldM += (widths[i] as number) * Math.abs(waterOld[i] as number);

@@ -110,19 +110,17 @@ export interface PoreHydraulics extends CellHydraulics {
     previousScale: number,
   ): number;
   /**
-   * Gives cell i the pore-diameter factor `scale` and the specific storage `storage` (1/Pa) and
-   * returns the pressure (Pa) at which it keeps the water content `water` (m3/m3) it held at
-   * `pressurePa`: what writing `diameterScale` and `specificStoragePerPa`, `refreshScale()` and
-   * {@link pressureKeepingWater} do, for one cell (the element model calls it for each cell
-   * hydration refined, in the loop that finds them).
+   * Gives cell i the pore-diameter factor `scale` and the specific storage `storage` (1/Pa): what
+   * writing `diameterScale` and `specificStoragePerPa` and `refreshScale()` do, for one cell (the
+   * element model calls it for each cell hydration refined, in the loop that finds them; the next
+   * step's balance keeps the cell's water, stepController.ts `heldWater`).
    */
-  rescaleCellKeepingWater(
-    cell: number,
-    scale: number,
-    storage: number,
-    water: number,
-    pressurePa: number,
-  ): number;
+  rescaleCell(cell: number, scale: number, storage: number): void;
+  /**
+   * Takes the cell temperatures `temperatures` (K): writing `temperatureK` and
+   * `refreshTemperature()` for the cells whose temperature changed. Returns whether any did.
+   */
+  setTemperatures(temperatures: Float64Array): boolean;
   /**
    * Takes the cell temperatures `temperatures` (K) and moves `pressures` (Pa, read and written)
    * so every cell whose temperature changed keeps its water content: writing `temperatureK`,
@@ -258,14 +256,16 @@ export function createPoreHydraulics(options: PoreHydraulicsOptions): PoreHydrau
   const inverseKelvin = new Float64Array(n); // 1 / A
   const airEntryRef = retention.airEntryPressurePa;
 
+  /** The refinement-dependent coefficients of cell i for diameterScale[i] and its temperature. */
+  const applyCellScale = (i: number): void => {
+    const scale = diameterScale[i] as number;
+    const pressureScaleOfCell = scale * (tensionRatio[i] as number);
+    pressureScale[i] = pressureScaleOfCell;
+    inverseScale[i] = 1 / pressureScaleOfCell;
+    liquidFactor[i] = scale * scale * multiplier * (inverseViscosity[i] as number);
+  };
   const refreshScale = (): void => {
-    for (let i = 0; i < n; i += 1) {
-      const scale = diameterScale[i] as number;
-      const pressureScaleOfCell = scale * (tensionRatio[i] as number);
-      pressureScale[i] = pressureScaleOfCell;
-      inverseScale[i] = 1 / pressureScaleOfCell;
-      liquidFactor[i] = scale * scale * multiplier * (inverseViscosity[i] as number);
-    }
+    for (let i = 0; i < n; i += 1) applyCellScale(i);
   };
   const computedForK = new Float64Array(n).fill(Number.NaN);
   // A new temperature reads the shared table of water properties (_waterPropertyTable.ts: IAPWS
@@ -305,6 +305,12 @@ export function createPoreHydraulics(options: PoreHydraulicsOptions): PoreHydrau
           WATER_MOLAR_MASS_KG_PER_MOL) /
         (GAS_CONSTANT_J_PER_MOL_K * temperature * liquidDensity * kelvinPa)
       : 0;
+  };
+  /** Cell i at `temperature` (K): its temperature-dependent and refinement coefficients. */
+  const setCellTemperature = (i: number, temperature: number): void => {
+    temperatureK[i] = temperature;
+    applyCellTemperature(i);
+    applyCellScale(i);
   };
   const refreshTemperature = (): void => {
     for (let i = 0; i < n; i += 1) applyCellTemperature(i);
@@ -426,26 +432,25 @@ export function createPoreHydraulics(options: PoreHydraulicsOptions): PoreHydrau
         const pressure = pressures[i] as number;
         const held = waterContent(i, pressure);
         const previousScale = pressureScale[i] as number;
-        temperatureK[i] = temperature;
-        applyCellTemperature(i);
-        const scale = diameterScale[i] as number;
-        const pressureScaleOfCell = scale * (tensionRatio[i] as number);
-        pressureScale[i] = pressureScaleOfCell;
-        inverseScale[i] = 1 / pressureScaleOfCell;
-        liquidFactor[i] = scale * scale * multiplier * (inverseViscosity[i] as number);
+        setCellTemperature(i, temperature);
         pressures[i] = keepWater(i, held, pressure, previousScale);
       }
       return changed;
     },
-    rescaleCellKeepingWater(cell, scale, storage, water, pressurePa) {
-      const previousScale = pressureScale[cell] as number;
+    setTemperatures(temperatures) {
+      let changed = false;
+      for (let i = 0; i < n; i += 1) {
+        const temperature = temperatures[i] as number;
+        if (temperature === temperatureK[i]) continue;
+        changed = true;
+        setCellTemperature(i, temperature);
+      }
+      return changed;
+    },
+    rescaleCell(cell, scale, storage) {
       diameterScale[cell] = scale;
       specificStoragePerPa[cell] = storage;
-      const pressureScaleOfCell = scale * (tensionRatio[cell] as number);
-      pressureScale[cell] = pressureScaleOfCell;
-      inverseScale[cell] = 1 / pressureScaleOfCell;
-      liquidFactor[cell] = scale * scale * multiplier * (inverseViscosity[cell] as number);
-      return keepWater(cell, water, pressurePa, previousScale);
+      applyCellScale(cell);
     },
     equivalentPorePressurePa(cell, pressurePa) {
       const scale = pressureScale[cell] as number;

@@ -57,6 +57,26 @@ export interface StepCheck {
   retryStepS(stepS: number, result: StepResult): number;
 }
 
+/** A caller's hooks into {@link advanceTransport}; each is optional. */
+export interface TransportHooks {
+  /**
+   * After every accepted step, with the step length, before the next one is tried (the element
+   * model updates hydration and pore refinement there).
+   */
+  onStep?: (stepS: number, result: StepResult) => void;
+  /** The caller's own limits on the steps ({@link StepCheck}). */
+  check?: StepCheck;
+  /**
+   * The water content theta (m3/m3) each cell holds, read and written: on entry, that of the
+   * state's pressures on the curves they were solved on; each step's balance counts from it and
+   * an accepted step writes its own. The curves may then change between steps (`onStep`:
+   * refinement) or before the first (temperature) without moving the pressures to keep the water:
+   * the next step's Newton iteration finds the pressure that holds it. Absent: each step counts
+   * from the water of the old pressures on the current curves.
+   */
+  heldWater?: Float64Array;
+}
+
 /** The transport part of an element's state: plain numbers and typed arrays only. */
 export interface TransportState {
   /** Model time, s since placement. */
@@ -90,12 +110,11 @@ export class EngineConvergenceError extends Error {
 
 /**
  * Advances `state` in place to `targetTimeS` in adaptive backward-Euler steps. The surface
- * condition of each step is asked for at the step's end time (backward Euler). `onStep` runs
- * after every accepted step with the step length, before the next one is tried (the element
- * model updates hydration, temperature and pore refinement there).
+ * condition of each step is asked for at the step's end time (backward Euler). `hooks.onStep`
+ * runs after every accepted step ({@link TransportHooks}).
  *
- * `check`, when given, may shorten a step before it is tried and refuse a converged trial with a
- * shorter retry ({@link StepCheck}); the surface condition is asked for again for the retry.
+ * `hooks.check`, when given, may shorten a step before it is tried and refuse a converged trial
+ * with a shorter retry ({@link StepCheck}); the surface condition is asked for again for the retry.
  *
  * Throws {@link EngineConvergenceError} only when a step fails at `minStepS`. A target at or
  * before the current time does nothing.
@@ -108,9 +127,9 @@ export function advanceTransport(
   targetTimeS: number,
   surfaceAt: (timeS: number) => SurfaceCondition,
   options: StepControlOptions = {},
-  onStep?: (stepS: number, result: StepResult) => void,
-  check?: StepCheck,
+  hooks: TransportHooks = {},
 ): void {
+  const { onStep, check, heldWater } = hooks;
   const minStepS = options.minStepS ?? 1e-3;
   const maxStepS = options.maxStepS ?? 900;
   const growthFactor = options.growthFactor ?? 1.5;
@@ -148,15 +167,26 @@ export function advanceTransport(
       stepS,
       surface,
       options,
+      heldWater,
     );
     if (!result.converged && (options.linearisation ?? 'newton') === 'newton') {
       // Newton can cycle where the curves have kinks (air entry, fully drained pores); the
       // Picard iteration is slower but monotone there, so it gets one try before the step is cut.
-      result = implicitStep(grid, hydraulics, workspace, state.pressurePa, next, stepS, surface, {
-        ...options,
-        linearisation: 'picard',
-        maxIterations: picardFallbackIterations,
-      });
+      result = implicitStep(
+        grid,
+        hydraulics,
+        workspace,
+        state.pressurePa,
+        next,
+        stepS,
+        surface,
+        {
+          ...options,
+          linearisation: 'picard',
+          maxIterations: picardFallbackIterations,
+        },
+        heldWater,
+      );
     }
     if (!result.converged) {
       state.rejectedSteps += 1;
@@ -174,6 +204,7 @@ export function advanceTransport(
       }
     }
     state.pressurePa.set(next);
+    heldWater?.set(workspace.water);
     state.timeS = stepS === remaining ? targetTimeS : endS;
     state.surfaceInflowM += result.surfaceInflowM;
     state.storageWaterM += result.storageWaterM;
