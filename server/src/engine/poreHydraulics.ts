@@ -125,8 +125,8 @@ export interface PoreHydraulics extends CellHydraulics {
    * Takes the cell temperatures `temperatures` (K) and moves `pressures` (Pa, read and written)
    * so every cell whose temperature changed keeps its water content: writing `temperatureK`,
    * `refreshTemperature()` and {@link pressureKeepingWater} for those cells in one pass (the
-   * element model does it when the weather changes the temperatures). Returns whether any cell
-   * changed.
+   * element model does it when the weather changes the temperatures with no step to take, which
+   * would otherwise keep the water). Returns whether any cell changed.
    */
   setTemperaturesKeepingWater(temperatures: Float64Array, pressures: Float64Array): boolean;
   /**
@@ -345,7 +345,7 @@ export function createPoreHydraulics(options: PoreHydraulicsOptions): PoreHydrau
     }
     let low = 0; // tableSaturation[low] >= saturation
     let high = lastNode; // tableSaturation[high] < saturation
-    // The remaps after a change of temperature or refinement move a cell's saturation very
+    // A remap after a change of temperature or refinement moves a cell's saturation very
     // little: the segment of the guess holds the answer most of the time, without the search.
     const guessReference = guessPa * scale;
     if (guessReference < airEntryRef) {
