@@ -124,7 +124,12 @@ describe('meniscus simulate', () => {
       join(folder.path, 'run.svg'),
     ]);
     expect(run.code).toBe(0);
-    expect(readFileSync(join(folder.path, 'run.svg'), 'utf8')).toMatch(/^<svg/);
+    const svg = readFileSync(join(folder.path, 'run.svg'), 'utf8');
+    expect(svg).toMatch(/^<svg/);
+    // The plastic phase's risk shows only as utilization (the stress is zero before set).
+    expect(svg).toContain('Utilization (plastic: suction over critical suction');
+    expect(svg).toContain('cracking likely at 1');
+    expect(svg).toContain('Saturation profiles');
   });
 
   it('takes an own pore-size distribution with --psd and --porosity, and measured evaporation', async () => {

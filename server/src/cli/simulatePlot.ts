@@ -4,11 +4,13 @@
  */
 import { writeFile } from 'node:fs/promises';
 
-/** One point of the series over time (MPa, h). */
+/** One point of the series over time (MPa, h; utilization as physics.md section 7). */
 export interface SeriesRow {
   timeH: number;
+  phase: string;
   surfaceStressMPa: number;
   fctmMPa: number;
+  utilization: number;
 }
 /** One depth profile (mm, saturation 0..1) at a time (h). */
 export interface ProfileRow {
@@ -19,7 +21,9 @@ export interface ProfileRow {
 
 /**
  * Figure of a run with vega-lite 5 rendered by vega 5 to SVG (PNG through resvg): surface stress
- * and tensile strength over time above, saturation profiles at the requested hours below.
+ * and tensile strength over time; the utilization of each phase over time with the line at 1
+ * (before final set the stress is zero while the suction builds, so only this panel shows the
+ * plastic phase's risk); saturation profiles at the requested hours.
  */
 export async function writePlot(
   path: string,
@@ -51,6 +55,41 @@ export async function writePlot(
       strokeDash: { field: 'quantity', type: 'nominal', title: null },
     },
   };
+  const utilizationPanel = {
+    title: 'Utilization (plastic: suction over critical suction; hardening: stress over strength)',
+    width: 520,
+    height: 160,
+    layer: [
+      {
+        data: {
+          values: series.map(({ timeH, phase, utilization }) => ({ timeH, phase, utilization })),
+        },
+        mark: 'line',
+        encoding: {
+          x: { field: 'timeH', type: 'quantitative', title: 'time since placement (h)' },
+          y: { field: 'utilization', type: 'quantitative', title: 'utilization' },
+          color: { field: 'phase', type: 'nominal', title: 'phase' },
+        },
+      },
+      {
+        data: { values: [{ utilization: 1, label: 'cracking likely at 1' }] },
+        layer: [
+          {
+            mark: { type: 'rule', strokeDash: [4, 3], color: '#555' },
+            encoding: { y: { field: 'utilization', type: 'quantitative' } },
+          },
+          {
+            mark: { type: 'text', align: 'left', dx: 4, dy: -6, color: '#555' },
+            encoding: {
+              y: { field: 'utilization', type: 'quantitative' },
+              x: { value: 0 },
+              text: { field: 'label' },
+            },
+          },
+        ],
+      },
+    ],
+  };
   const depthPanel = {
     title: 'Saturation profiles',
     width: 520,
@@ -70,7 +109,8 @@ export async function writePlot(
   };
   const spec = {
     $schema: 'https://vega.github.io/schema/vega-lite/v5.json',
-    vconcat: depth.length > 0 ? [timePanel, depthPanel] : [timePanel],
+    vconcat:
+      depth.length > 0 ? [timePanel, utilizationPanel, depthPanel] : [timePanel, utilizationPanel],
     resolve: { scale: { color: 'independent', strokeDash: 'independent' } },
   };
   const compiled = vegaLite.compile(spec as unknown as Parameters<typeof vegaLite.compile>[0]);
