@@ -2,7 +2,7 @@ import { readFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { afterAll, describe, expect, it } from 'vitest';
 import { main } from '../../server/src/cli/main.ts';
-import { callCli, fixtureFolder, runCliJson } from './_runCli.ts';
+import { callCli, fixtureFolder, runCli, runCliJson } from './_runCli.ts';
 
 const folder = fixtureFolder();
 afterAll(() => folder.remove());
@@ -88,6 +88,32 @@ describe('meniscus simulate', () => {
     expect(higher.targetFcmMPa).toBe(25);
     expect(higher.coreHours).toBeGreaterThan(standard.coreHours);
     expect(standard.coreHours).toBeGreaterThan(0);
+  });
+
+  it('the table says when the strength target is reached at the end, and the hours when it is not', async () => {
+    const tableOf = async (hours: string) =>
+      (
+        await runCli(
+          [
+            'simulate',
+            '--material',
+            'normal-concrete',
+            '--thickness-mm',
+            '100',
+            '--cells',
+            '30',
+          ].concat(STEADY, ['--hours', hours]),
+        )
+      ).stdout;
+    // The check is the wording: this 100 mm slab's core is below 10 MPa in place at 4 h (it has
+    // barely set) and past it at 16 h at 30 degC (the engine's EN 1992-1-1 3.1.2 strength law);
+    // a dried surface may stop hydrating short of it, so only the core must read "reached".
+    expect(await tableOf('4')).toMatch(
+      /hours from the end to 10\.0 MPa, surface \/ core\s*│\s*\d+\.\d \/ \d+\.\d/,
+    );
+    expect(await tableOf('16')).toMatch(
+      /hours from the end to 10\.0 MPa, surface \/ core\s*│\s*\S+ \/ reached/,
+    );
   });
 
   it('reads a weather CSV with ISO times and a measure log, and the measure lowers the water loss', async () => {

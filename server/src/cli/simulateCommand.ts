@@ -91,6 +91,13 @@ function readMaterial(engine: Engine, flags: FlagReader, cwd: string) {
   return own;
 }
 
+/** Hours to the strength target as the table shows them: reached, never, or hours. */
+function hoursToTarget(hours: number): string {
+  if (hours === 0) return 'reached';
+  if (hours === Number.POSITIVE_INFINITY) return 'never at this rate';
+  return formatNumber(hours, 1);
+}
+
 function listOfHours(text: string | undefined, hours: number): number[] {
   if (text === undefined) return [];
   return text.split(',').map((part) => {
@@ -274,7 +281,7 @@ async function run(flags: FlagReader, context: CommandContext) {
           ['water evaporated', formatNumber(summary.waterLossKgM2, 2), 'kg/m2'],
           [
             `hours from the end to ${formatNumber(strengthForecast.targetFcmMPa, 1)} MPa, surface / core`,
-            `${formatNumber(strengthForecast.surfaceHours, 1)} / ${formatNumber(strengthForecast.coreHours, 1)}`,
+            `${hoursToTarget(strengthForecast.surfaceHours)} / ${hoursToTarget(strengthForecast.coreHours)}`,
             'h',
           ],
         ],
