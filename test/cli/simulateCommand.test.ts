@@ -116,6 +116,85 @@ describe('meniscus simulate', () => {
     );
   });
 
+  describe('--placed-at: a forecast read from a planned placement', () => {
+    const forecast =
+      'time,airTempC,rhPercent,windKmH,concreteTempC\n' +
+      '2026-07-01T06:00:00+02:00,18,80,5,20\n' +
+      '2026-07-01T09:00:00+02:00,24,55,10,26\n' +
+      '2026-07-01T12:00:00+02:00,31,35,22,34\n' +
+      '2026-07-01T15:00:00+02:00,33,30,25,35\n' +
+      '2026-07-01T18:00:00+02:00,28,40,15,30\n';
+    const summaryOf = async (file: string, extra: string[]) => {
+      const { json } = await runCliJson(
+        [...BASE, '--weather', file, '--hours', '6', ...extra],
+        folder.path,
+        callCli,
+      );
+      return json;
+    };
+
+    it('runs as the file cut at the placement does, and differs from placing at its first record', async () => {
+      const whole = folder.write('forecast.csv', forecast);
+      const cut = folder.write(
+        'from-noon.csv',
+        forecast
+          .split('\n')
+          .filter((line, index) => index === 0 || line >= '2026-07-01T12')
+          .join('\n'),
+      );
+      const placedAtNoon = await summaryOf(whole, ['--placed-at', '2026-07-01T12:00+02:00']);
+      const cutAtNoon = await summaryOf(cut, []);
+      const atDawn = await summaryOf(whole, []);
+      for (const key of ['maxUtilization', 'waterLossKgM2', 'maxSurfaceStressMPa']) {
+        expect(placedAtNoon[key]).toBe(cutAtNoon[key]);
+      }
+      expect(placedAtNoon.waterLossKgM2).toBeGreaterThan(atDawn.waterLossKgM2 as number);
+    });
+
+    it('says when the weather file ends before the run does', async () => {
+      const whole = folder.write('forecast-short.csv', forecast);
+      const late = await summaryOf(whole, ['--placed-at', '2026-07-01T15:00+02:00']);
+      expect(String(late.notes)).toContain(
+        'the weather file ends 3.0 h after placement: its last record is held to the end of the run (6.0 h)',
+      );
+      const early = await summaryOf(whole, []);
+      expect(String(early.notes)).not.toContain('the weather file ends');
+    });
+
+    it.each([
+      [
+        'a time outside the file',
+        ['--placed-at', '2026-07-02T12:00+02:00'],
+        /--placed-at must lie within the weather file \(2026-07-01T06:00:00\+02:00 to 2026-07-01T18:00:00\+02:00\)/,
+      ],
+      ['a time that is not one', ['--placed-at', 'noon'], /--placed-at must be an ISO 8601 time/],
+    ])('exits 2 for %s', async (_label, extra, message) => {
+      const whole = folder.write('forecast-errors.csv', forecast);
+      const run = await callCli(
+        [...BASE, '--weather', whole, '--hours', '6', ...extra],
+        folder.path,
+      );
+      expect(run.code).toBe(2);
+      expect(run.stderr).toMatch(message);
+    });
+
+    it('exits 2 for hours since placement in the file, or no file', async () => {
+      const hoursFile = folder.write(
+        'hours.csv',
+        'time,airTempC,rhPercent,windKmH\n0,25,50,10\n6,25,50,10\n',
+      );
+      const withHours = await callCli(
+        [...BASE, '--weather', hoursFile, '--placed-at', '2026-07-01T12:00Z'],
+        folder.path,
+      );
+      expect(withHours.code).toBe(2);
+      expect(withHours.stderr).toMatch(/must be an ISO 8601 time with --placed-at/);
+      const constant = await callCli([...BASE, ...STEADY, '--placed-at', '2026-07-01T12:00Z']);
+      expect(constant.code).toBe(2);
+      expect(constant.stderr).toMatch(/--placed-at needs --weather with ISO 8601 times/);
+    });
+  });
+
   it('reads a weather CSV with ISO times and a measure log, and the measure lowers the water loss', async () => {
     const weather = folder.write(
       'weather.csv',

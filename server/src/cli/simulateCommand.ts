@@ -131,8 +131,20 @@ async function run(flags: FlagReader, context: CommandContext) {
   const weatherPath = flags.optionalString('--weather');
   let weather: WeatherSample[];
   if (weatherPath !== undefined) {
-    weather = engine.readWeather(weatherPath, windHeightM, context.cwd);
+    weather = engine.readWeather(
+      weatherPath,
+      windHeightM,
+      context.cwd,
+      flags.optionalString('--placed-at'),
+    );
   } else {
+    if (flags.optionalString('--placed-at') !== undefined) {
+      throw new UsageError(
+        '--placed-at',
+        'needs --weather with ISO 8601 times (constant weather has no clock)',
+        'without --weather',
+      );
+    }
     const airC = flags.number('--air-temp', engine.AIR_TEMPERATURE_RULE);
     const concreteC =
       flags.optionalNumber('--concrete-temp', engine.CONCRETE_TEMPERATURE_RULE) ?? airC;
@@ -208,6 +220,12 @@ async function run(flags: FlagReader, context: CommandContext) {
     relativeHumidity: entry.profiles.relativeHumidity,
   }));
   const notes: string[] = [];
+  const weatherEndH = (weather.at(-1)?.timeS ?? 0) / 3600;
+  if (weatherPath !== undefined && weatherEndH < hours) {
+    notes.push(
+      `the weather file ends ${formatNumber(weatherEndH, 1)} h after placement: its last record is held to the end of the run (${formatNumber(hours, 1)} h).`,
+    );
+  }
   if (plotPath !== undefined) {
     await engine.writePlot(resolve(context.cwd, plotPath), series, profiles);
     notes.push(`figure written to ${plotPath}`);
@@ -363,6 +381,11 @@ export const simulateCommand: CommandDefinition = {
       description: 'height of the wind reading, m (default 0.5 m: no conversion)',
     },
     { flags: '--weather <file>', description: 'weather CSV instead of the constant-weather flags' },
+    {
+      flags: '--placed-at <time>',
+      description:
+        'placement time (ISO 8601) within a weather file of ISO times, e.g. a forecast (default: its first record)',
+    },
     {
       flags: '--measures <file>',
       description: 'measure log JSON (curing measures with start and end hours)',

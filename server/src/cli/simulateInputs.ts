@@ -67,19 +67,39 @@ export function windAt05mMS(windKmH: number, heightM: number | undefined): numbe
 /**
  * Weather file: CSV with `time` (ISO 8601, or hours since placement), `airTempC`, `rhPercent`,
  * `windKmH`, optional `concreteTempC` (default: the air temperature) and `evaporationKgM2h`
- * (measured, replaces the estimate). Placement is the first record.
+ * (measured, replaces the estimate). Placement is the first record, or `placedAt` (an ISO 8601
+ * time, `--placed-at`) for a file of ISO times that covers it: a forecast read from a planned
+ * placement on, the records before it only to interpolate at placement.
  */
 export function readWeather(
   path: string,
   windHeightM: number | undefined,
   cwd: string,
+  placedAt?: string,
 ): WeatherSample[] {
   const table = readCsvFile('--weather', path, ['time', 'airTempC', 'rhPercent', 'windKmH'], cwd);
   let originMs = Number.NaN;
+  if (placedAt !== undefined) {
+    originMs = parseIsoTimeMs(placedAt);
+    if (Number.isNaN(originMs)) {
+      throw new UsageError(
+        '--placed-at',
+        'must be an ISO 8601 time, e.g. 2026-07-01T11:00+02:00',
+        JSON.stringify(placedAt),
+      );
+    }
+  }
   const samples: WeatherSample[] = [];
   for (const record of table.records) {
     const text = record.cells.time ?? '';
     let timeS = Number(text);
+    if (placedAt !== undefined && text.trim() !== '' && Number.isFinite(timeS)) {
+      throw new UsageError(
+        describeCell(table, record, 'time'),
+        'must be an ISO 8601 time with --placed-at (hours since placement leave no time to place at)',
+        JSON.stringify(text),
+      );
+    }
     if (text.trim() === '' || !Number.isFinite(timeS)) {
       const ms = parseIsoTimeMs(text);
       if (Number.isNaN(ms)) {
@@ -126,6 +146,17 @@ export function readWeather(
         csvNumber(table, record, 'evaporationKgM2h', { unit: 'kg/m2/h', min: 0, max: 10 }) / 3600;
     }
     samples.push(sample);
+  }
+  const first = samples[0];
+  const last = samples.at(-1);
+  if (placedAt !== undefined && first !== undefined && last !== undefined) {
+    if (first.timeS > 0 || last.timeS < 0) {
+      throw new UsageError(
+        '--placed-at',
+        `must lie within the weather file (${table.records[0]?.cells.time ?? ''} to ${table.records.at(-1)?.cells.time ?? ''})`,
+        JSON.stringify(placedAt),
+      );
+    }
   }
   return samples;
 }
