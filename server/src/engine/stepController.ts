@@ -141,6 +141,24 @@ export function advanceTransport(
   const next = workspace.trialPressurePa; // no allocation per call (one per interval)
   // A retry the check asked for (NaN: none): same start, shorter step.
   let retryS = Number.NaN;
+  const picardOptions: ImplicitStepOptions = {
+    ...options,
+    linearisation: 'picard',
+    maxIterations: picardFallbackIterations,
+  };
+  /** One trial step from the state's pressures into `next`. */
+  const attempt = (stepS: number, surface: SurfaceCondition, stepOptions: ImplicitStepOptions) =>
+    implicitStep(
+      grid,
+      hydraulics,
+      workspace,
+      state.pressurePa,
+      next,
+      stepS,
+      surface,
+      stepOptions,
+      heldWater,
+    );
   while (state.timeS < targetTimeS) {
     const remaining = targetTimeS - state.timeS;
     const elapsedLimitS = Number.isFinite(elapsedFraction)
@@ -158,35 +176,11 @@ export function advanceTransport(
     retryS = Number.NaN;
     const endS = state.timeS + stepS;
     const surface = surfaceAt(endS);
-    let result = implicitStep(
-      grid,
-      hydraulics,
-      workspace,
-      state.pressurePa,
-      next,
-      stepS,
-      surface,
-      options,
-      heldWater,
-    );
+    let result = attempt(stepS, surface, options);
     if (!result.converged && (options.linearisation ?? 'newton') === 'newton') {
       // Newton can cycle where the curves have kinks (air entry, fully drained pores); the
       // Picard iteration is slower but monotone there, so it gets one try before the step is cut.
-      result = implicitStep(
-        grid,
-        hydraulics,
-        workspace,
-        state.pressurePa,
-        next,
-        stepS,
-        surface,
-        {
-          ...options,
-          linearisation: 'picard',
-          maxIterations: picardFallbackIterations,
-        },
-        heldWater,
-      );
+      result = attempt(stepS, surface, picardOptions);
     }
     if (!result.converged) {
       state.rejectedSteps += 1;
