@@ -12,6 +12,9 @@
  * the straight line through the air entry (S = 1, k = k_sat at position `airEntryPosition`, within
  * half a node of 0) and node 1, so that the interpolant meets the saturated branch exactly at the
  * air entry.
+ *
+ * The inverse look-ups ({@link pressureForSaturation}, {@link pressureOnSameSegment}) solve the
+ * same interpolant for the pressure, so a water content found from them reads back to rounding.
  */
 import type { CapillaryBundlePermeability } from '../physics/capillaryBundlePermeability.ts';
 import type { PoreRetentionCurve } from '../physics/retention.ts';
@@ -36,6 +39,8 @@ export interface HydraulicTable {
   readonly permeabilityM2: Float64Array;
   /** k at saturation, m2. */
   readonly saturatedPermeabilityM2: number;
+  /** Pressure at the last node, Pa (< 0): the curves are flat beyond it. */
+  readonly driestPressurePa: number;
   readonly nodeCount: number;
 }
 
@@ -84,6 +89,71 @@ export function buildHydraulicTable(
     saturation,
     permeabilityM2,
     saturatedPermeabilityM2: permeability.saturatedPermeabilityM2,
+    driestPressurePa: -exp2Linear(coordinateStart + (nodeCount - 1) / nodesPerUnit),
     nodeCount,
   };
+}
+
+/**
+ * The pressure (Pa, < 0) at which the table's saturation interpolant equals `saturation`: the
+ * segment holding it (binary search on the decreasing node saturations) solved for the position,
+ * then p = -exp2Linear(v). For saturation above the last node's (the caller handles the flat part
+ * beyond it); a saturation above node 0's extrapolates segment 0. The segment of `guessPa` (Pa) is
+ * tried first: a remap after a change of temperature or refinement moves a cell's saturation very
+ * little, so it holds the answer most of the time, without the search.
+ */
+export function pressureForSaturation(
+  table: HydraulicTable,
+  saturation: number,
+  guessPa: number,
+): number {
+  const nodes = table.saturation;
+  const { coordinateStart, inverseStep } = table;
+  let low = 0; // nodes[low] >= saturation
+  let high = table.nodeCount - 1; // nodes[high] < saturation
+  if (guessPa < table.airEntryPressurePa) {
+    const position = (log2Linear(-guessPa) - coordinateStart) * inverseStep;
+    const node = position > 0 ? Math.floor(position) : 0;
+    if (
+      node < high &&
+      (nodes[node] as number) >= saturation &&
+      (nodes[node + 1] as number) < saturation
+    ) {
+      low = node;
+      high = node + 1;
+    }
+  }
+  while (high - low > 1) {
+    const middle = (low + high) >> 1;
+    if ((nodes[middle] as number) >= saturation) low = middle;
+    else high = middle;
+  }
+  const s0 = nodes[low] as number;
+  const s1 = nodes[low + 1] as number;
+  const weight = s1 === s0 ? 0 : (saturation - s0) / (s1 - s0);
+  return -exp2Linear(coordinateStart + (low + weight) / inverseStep);
+}
+
+/**
+ * The pressure (Pa, < 0) at which the table's saturation interpolant equals `saturation` on the
+ * segment that holds `previousPa` (Pa), or NaN when `previousPa` is not on a table segment (at or
+ * above the air entry, beyond the last node) or that segment does not hold the saturation: the
+ * position on the segment, then its pressure. {@link pressureForSaturation}'s answer (to rounding)
+ * without its search, for a saturation a change of curves moved a few per mil.
+ */
+export function pressureOnSameSegment(
+  table: HydraulicTable,
+  saturation: number,
+  previousPa: number,
+): number {
+  if (!(previousPa < table.airEntryPressurePa)) return Number.NaN;
+  const { coordinateStart, inverseStep } = table;
+  const position = (log2Linear(-previousPa) - coordinateStart) * inverseStep;
+  if (!(position < table.nodeCount - 1)) return Number.NaN;
+  const node = position > 0 ? Math.floor(position) : 0;
+  const s0 = table.saturation[node] as number;
+  const s1 = table.saturation[node + 1] as number;
+  if (!(s1 < s0 && saturation <= s0 && saturation > s1)) return Number.NaN;
+  const step = 1 / inverseStep;
+  return -exp2Linear(coordinateStart + (node + (saturation - s0) / (s1 - s0)) * step);
 }

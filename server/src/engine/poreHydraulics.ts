@@ -1,8 +1,9 @@
 /**
- * Hydraulic properties of a porous material for the transport solver, from its pore-size
- * distribution (physics.md sections 2 and 3): retention from Young-Laplace drainage, capillary
- * bundle permeability, water viscosity, vapour diffusion through drained pores, and per-cell
- * scaling for temperature (surface tension) and pore refinement (hydration).
+ * Hydraulic properties of a porous material for the transport solver, per cell (physics.md
+ * sections 2 and 3): the material's curves at the reference temperature with fresh pores
+ * (_poreReferenceCurves.ts: Young-Laplace retention, capillary-bundle permeability), scaled in
+ * each cell for its temperature (surface tension, viscosity and vapour diffusion:
+ * _cellWaterCoefficients.ts) and its pore refinement (hydration).
  *
  * Scaling rule: in cell i, pore diameters are the fresh ones times `diameterScale[i]` and the
  * surface tension is gamma(T_i). Young-Laplace is linear in gamma / D, so
@@ -10,23 +11,14 @@
  * with p_ref the curve at the reference temperature; capillary-bundle permeability scales with
  * D^2, so k_i(S) = k_ref(S) diameterScale_i^2.
  */
-import { retentionFromPoreSizes, type PoreRetentionCurve } from '../physics/retention.ts';
-import { equivalentPorePressureCurve } from '../physics/equivalentPorePressure.ts';
+import type { PoreRetentionCurve } from '../physics/retention.ts';
 import type { PoreSizeDistribution } from '../physics/retentionCurve.ts';
-import { waterSurfaceTensionNPerM } from '../physics/waterSurfaceTension.ts';
-import {
-  capillaryBundlePermeability,
-  type CapillaryBundlePermeability,
-} from '../physics/capillaryBundlePermeability.ts';
-import { GAS_CONSTANT_J_PER_MOL_K, WATER_MOLAR_MASS_KG_PER_MOL } from '../physics/units.ts';
+import type { CapillaryBundlePermeability } from '../physics/capillaryBundlePermeability.ts';
 import type { CellHydraulics } from './hydraulics.ts';
-import { buildHydraulicTable, valueAtFirstNode } from './_hydraulicTable.ts';
-import { sharedByParameters } from './_sharedByParameters.ts';
-import { exp2Linear, log2Linear, log2LinearSlopeFactor } from './_log2Linear.ts';
-import {
-  waterPropertiesAt,
-  type WaterProperties as WaterPropertyValues,
-} from './_waterPropertyTable.ts';
+import { pressureForSaturation, pressureOnSameSegment } from './_hydraulicTable.ts';
+import { poreReferenceCurves } from './_poreReferenceCurves.ts';
+import { log2Linear, log2LinearSlopeFactor } from './_log2Linear.ts';
+import { createCellWaterCoefficients } from './_cellWaterCoefficients.ts';
 
 /** Options of {@link createPoreHydraulics}. */
 export interface PoreHydraulicsOptions {
@@ -98,10 +90,9 @@ export interface PoreHydraulics extends CellHydraulics {
   /**
    * Liquid pressure (Pa) at which cell i holds water content theta after its curve changed
    * (temperature, refinement, storage), from its pressure `pressurePa` under the pressure scale
-   * `previousScale` it had before: the same answer as {@link pressureForWaterContent} (to
-   * rounding), without its search when the new saturation lies on the table segment the cell was
-   * on (a change of a few per mil moves it little): the position on that segment, then the
-   * pressure there. Otherwise it falls back to {@link pressureForWaterContent}.
+   * `previousScale` it had before: {@link pressureForWaterContent}'s answer (to rounding),
+   * without its search when the saturation stays on the cell's table segment (a change of a few
+   * per mil moves it little; _hydraulicTable.ts `pressureOnSameSegment`).
    */
   pressureKeepingWater(
     cell: number,
@@ -111,9 +102,8 @@ export interface PoreHydraulics extends CellHydraulics {
   ): number;
   /**
    * Gives cell i the pore-diameter factor `scale` and the specific storage `storage` (1/Pa): what
-   * writing `diameterScale` and `specificStoragePerPa` and `refreshScale()` do, for one cell (the
-   * element model calls it for each cell hydration refined, in the loop that finds them; the next
-   * step's balance keeps the cell's water, stepController.ts `heldWater`).
+   * writing `diameterScale` and `specificStoragePerPa` and `refreshScale()` do, for one cell (for
+   * each cell hydration refined; the next step's balance keeps its water, stepController.ts).
    */
   rescaleCell(cell: number, scale: number, storage: number): void;
   /**
@@ -124,9 +114,8 @@ export interface PoreHydraulics extends CellHydraulics {
   /**
    * Takes the cell temperatures `temperatures` (K) and moves `pressures` (Pa, read and written)
    * so every cell whose temperature changed keeps its water content: writing `temperatureK`,
-   * `refreshTemperature()` and {@link pressureKeepingWater} for those cells in one pass (the
-   * element model does it when the weather changes the temperatures with no step to take, which
-   * would otherwise keep the water). Returns whether any cell changed.
+   * `refreshTemperature()` and {@link pressureKeepingWater} for those cells in one pass (when the
+   * weather changes the temperatures with no step to take). Returns whether any cell changed.
    */
   setTemperaturesKeepingWater(temperatures: Float64Array, pressures: Float64Array): boolean;
   /**
@@ -165,69 +154,27 @@ export interface PoreHydraulics extends CellHydraulics {
 export function createPoreHydraulics(options: PoreHydraulicsOptions): PoreHydraulics {
   const n = options.cellCount;
   const referenceK = options.referenceTemperatureK ?? 293.15;
-  const referenceTension = waterSurfaceTensionNPerM(referenceK);
-  // The curves and tables of the material, shared by every model of the same pores
-  // (_sharedByParameters.ts): built once per process, about 1.4 ms.
-  const curves = sharedByParameters(
-    'pore-hydraulics',
-    {
-      poreSizes: options.poreSizes,
-      porosity: options.porosity,
-      tortuosity: options.tortuosity,
-      saturatedPermeabilityM2: options.saturatedPermeabilityM2 ?? null,
-      referenceK,
-    },
-    () => {
-      const retention = retentionFromPoreSizes(options.poreSizes, referenceTension);
-      const permeability = capillaryBundlePermeability(retention, {
-        porosity: options.porosity,
-        tortuosity: options.tortuosity,
-        ...(options.saturatedPermeabilityM2 === undefined
-          ? {}
-          : { saturatedPermeabilityM2: options.saturatedPermeabilityM2 }),
-      });
-      const table = buildHydraulicTable(retention, permeability);
-      return {
-        retention,
-        permeability,
-        equivalentPressure: equivalentPorePressureCurve(retention),
-        table,
-        // pi at the table's nodes, NaN until a look-up needs it (see equivalentAtNode below).
-        equivalentNodes: new Float64Array(table.nodeCount).fill(Number.NaN),
-      };
-    },
-  );
-  const { retention, permeability, equivalentPressure, table, equivalentNodes } = curves;
+  // The curves and tables of the material at the reference temperature with fresh pores, shared
+  // by every model of the same pores (_poreReferenceCurves.ts).
+  const curves = poreReferenceCurves({
+    poreSizes: options.poreSizes,
+    porosity: options.porosity,
+    tortuosity: options.tortuosity,
+    saturatedPermeabilityM2: options.saturatedPermeabilityM2,
+    referenceTemperatureK: referenceK,
+  });
+  const { retention, permeability, equivalentPressure, table } = curves;
   const tableSaturation = table.saturation;
   const tablePermeability = table.permeabilityM2;
   const lastNode = table.nodeCount - 1;
   const porosity = options.porosity;
   const inversePorosity = 1 / porosity;
   const saturatedPermeability = table.saturatedPermeabilityM2;
-  const coordinateStart = table.coordinateStart;
-  const inverseStep = table.inverseStep;
-  const step = 1 / inverseStep;
-  // pi at the saturation table's nodes, filled the first time a look-up needs them (all of them
-  // would cost 0.4 ms) and kept with the material's curves: linear in v = log2Linear(suction)
-  // between nodes, within 2e-6 of the curve (test/engine/poreHydraulics.test.ts), like the
-  // saturation it is read beside.
-  const equivalentAtNode = (node: number): number => {
-    let value = equivalentNodes[node] as number;
-    if (Number.isNaN(value)) {
-      value =
-        node === 0
-          ? valueAtFirstNode(
-              table.airEntryPosition,
-              retention.airEntryPressurePa,
-              equivalentAtNode(1),
-            )
-          : equivalentPressure.fromLiquidPressure(
-              -exp2Linear(coordinateStart + node / inverseStep),
-            );
-      equivalentNodes[node] = value;
-    }
-    return value;
-  };
+  const { coordinateStart, inverseStep } = table;
+  // pi on the table's nodes and its look-up (_equivalentPressureTable.ts), bound to locals:
+  // fillProfiles() reads the nodes for every cell.
+  const equivalentAtNode = curves.equivalentTable.atNode;
+  const equivalentAtReference = curves.equivalentTable.atPressurePa;
   /**
    * The saturation table at a reference pressure below the air entry (Pa): the one look-up of
    * the saturation alone, so that saturationAt(), waterContentAt() and waterContents() give the
@@ -241,19 +188,24 @@ export function createPoreHydraulics(options: PoreHydraulicsOptions): PoreHydrau
     return s0 + (position - node) * ((tableSaturation[node + 1] as number) - s0);
   };
   let multiplier = options.permeabilityMultiplier ?? 1;
-  const vapourOn = options.vapourDiffusion ?? true;
-  const airDiffusivity = options.vapourDiffusivityM2s ?? 2.5e-5;
-  const liquidDensity = options.liquidDensityKgPerM3 ?? 998.2;
   const specificStoragePerPa = new Float64Array(n);
   const temperatureK = new Float64Array(n).fill(referenceK);
   const diameterScale = new Float64Array(n).fill(1);
   const pressureScale = new Float64Array(n).fill(1);
   const inverseScale = new Float64Array(n).fill(1); // 1 / c_i
-  const tensionRatio = new Float64Array(n); // gamma_ref / gamma(T)
-  const inverseViscosity = new Float64Array(n); // 1 / eta(T)
   const liquidFactor = new Float64Array(n); // s^2 m / eta
-  const vapourFactor = new Float64Array(n); // (D/tau) phi p_sat M / (R T rho_w A)
-  const inverseKelvin = new Float64Array(n); // 1 / A
+  // The water's coefficients of each cell at its temperature (_cellWaterCoefficients.ts).
+  const cellWater = createCellWaterCoefficients({
+    temperatureK,
+    referenceTensionNPerM: curves.referenceTensionNPerM,
+    vapourDiffusion: options.vapourDiffusion ?? true,
+    vapourDiffusivityM2s: options.vapourDiffusivityM2s ?? 2.5e-5,
+    tortuosity: options.tortuosity,
+    porosity: options.porosity,
+    liquidDensityKgPerM3: options.liquidDensityKgPerM3 ?? 998.2,
+  });
+  const { tensionRatio, inverseViscosity, vapourFactor, refreshCell } = cellWater;
+  const inverseKelvin = cellWater.inverseKelvinPerPa;
   const airEntryRef = retention.airEntryPressurePa;
 
   /** The refinement-dependent coefficients of cell i for diameterScale[i] and its temperature. */
@@ -267,53 +219,14 @@ export function createPoreHydraulics(options: PoreHydraulicsOptions): PoreHydrau
   const refreshScale = (): void => {
     for (let i = 0; i < n; i += 1) applyCellScale(i);
   };
-  const computedForK = new Float64Array(n).fill(Number.NaN);
-  // A new temperature reads the shared table of water properties (_waterPropertyTable.ts: IAPWS
-  // through the physics library, interpolated within 1e-7) straight into the cell's
-  // coefficients; a cell at its neighbour's temperature copies the neighbour's (cells share one
-  // surface temperature when no probe profile is given). No memo of objects per temperature: the
-  // weather gives a new temperature every interval, so a memo missed and its objects fed the
-  // garbage collector.
-  const water: WaterPropertyValues = {
-    surfaceTensionNPerM: 0,
-    viscosityPaS: 0,
-    densityKgPerM3: 0,
-    kelvinCoefficientPa: 0,
-    saturationVapourPressurePa: 0,
-  };
-  /** The temperature-dependent coefficients of cell i for temperatureK[i] (cells in order). */
-  const applyCellTemperature = (i: number): void => {
-    const temperature = temperatureK[i] as number;
-    if (temperature === computedForK[i]) return;
-    computedForK[i] = temperature;
-    if (i > 0 && temperature === computedForK[i - 1]) {
-      tensionRatio[i] = tensionRatio[i - 1] as number;
-      inverseViscosity[i] = inverseViscosity[i - 1] as number;
-      inverseKelvin[i] = inverseKelvin[i - 1] as number;
-      vapourFactor[i] = vapourFactor[i - 1] as number;
-      return;
-    }
-    waterPropertiesAt(temperature, water);
-    const kelvinPa = water.kelvinCoefficientPa;
-    tensionRatio[i] = referenceTension / water.surfaceTensionNPerM;
-    inverseViscosity[i] = 1 / water.viscosityPaS;
-    inverseKelvin[i] = 1 / kelvinPa;
-    vapourFactor[i] = vapourOn
-      ? ((airDiffusivity / options.tortuosity) *
-          options.porosity *
-          water.saturationVapourPressurePa *
-          WATER_MOLAR_MASS_KG_PER_MOL) /
-        (GAS_CONSTANT_J_PER_MOL_K * temperature * liquidDensity * kelvinPa)
-      : 0;
-  };
   /** Cell i at `temperature` (K): its temperature-dependent and refinement coefficients. */
   const setCellTemperature = (i: number, temperature: number): void => {
     temperatureK[i] = temperature;
-    applyCellTemperature(i);
+    refreshCell(i);
     applyCellScale(i);
   };
   const refreshTemperature = (): void => {
-    for (let i = 0; i < n; i += 1) applyCellTemperature(i);
+    for (let i = 0; i < n; i += 1) refreshCell(i);
     refreshScale();
   };
   refreshTemperature();
@@ -328,8 +241,7 @@ export function createPoreHydraulics(options: PoreHydraulicsOptions): PoreHydrau
 
   const pressureForWaterContent = (cell: number, target: number, guessPa: number): number => {
     // Exact inverse of the same interpolant the forward curve uses: the storage line above the
-    // air entry, else the table segment holding the target saturation (binary search on the
-    // decreasing node saturations) solved for its position, then p = -exp(u) / c.
+    // air entry, else the table's inverse at the reference pressure, p = p_ref / c.
     const scale = pressureScale[cell] as number;
     const storageCoefficient = specificStoragePerPa[cell] as number;
     const airEntryWater = porosity + (storageCoefficient * airEntryRef) / scale;
@@ -340,35 +252,10 @@ export function createPoreHydraulics(options: PoreHydraulicsOptions): PoreHydrau
     const saturation = (target - (storageCoefficient * airEntryRef) / scale) / porosity;
     if (!(saturation > (tableSaturation[lastNode] as number))) {
       // At or below the driest tabulated saturation the curve is flat: keep a guess beyond it.
-      const driestPa = -exp2Linear(coordinateStart + lastNode / inverseStep) / scale;
+      const driestPa = table.driestPressurePa / scale;
       return guessPa < driestPa ? guessPa : driestPa;
     }
-    let low = 0; // tableSaturation[low] >= saturation
-    let high = lastNode; // tableSaturation[high] < saturation
-    // A remap after a change of temperature or refinement moves a cell's saturation very
-    // little: the segment of the guess holds the answer most of the time, without the search.
-    const guessReference = guessPa * scale;
-    if (guessReference < airEntryRef) {
-      const position = (log2Linear(-guessReference) - coordinateStart) * inverseStep;
-      const node = position > 0 ? Math.floor(position) : 0;
-      if (
-        node < lastNode &&
-        (tableSaturation[node] as number) >= saturation &&
-        (tableSaturation[node + 1] as number) < saturation
-      ) {
-        low = node;
-        high = node + 1;
-      }
-    }
-    while (high - low > 1) {
-      const middle = (low + high) >> 1;
-      if ((tableSaturation[middle] as number) >= saturation) low = middle;
-      else high = middle;
-    }
-    const s0 = tableSaturation[low] as number;
-    const s1 = tableSaturation[low + 1] as number;
-    const weight = s1 === s0 ? 0 : (saturation - s0) / (s1 - s0);
-    return -exp2Linear(coordinateStart + (low + weight) / inverseStep) / scale;
+    return pressureForSaturation(table, saturation, guessPa * scale) / scale;
   };
 
   const keepWater = (
@@ -379,23 +266,11 @@ export function createPoreHydraulics(options: PoreHydraulicsOptions): PoreHydrau
   ): number => {
     const inverseScaleOfCell = inverseScale[cell] as number;
     const previousReference = pressurePa * previousScale;
-    if (previousReference < airEntryRef) {
-      const position = (log2Linear(-previousReference) - coordinateStart) * inverseStep;
-      if (position < lastNode) {
-        const storedWater =
-          (specificStoragePerPa[cell] as number) * airEntryRef * inverseScaleOfCell;
-        const saturation = (target - storedWater) * inversePorosity;
-        const node = position > 0 ? Math.floor(position) : 0;
-        const s0 = tableSaturation[node] as number;
-        const s1 = tableSaturation[node + 1] as number;
-        if (s1 < s0 && saturation <= s0 && saturation > s1) {
-          // The position on the same segment that holds the saturation, and its pressure.
-          const newPosition = node + (saturation - s0) / (s1 - s0);
-          return -exp2Linear(coordinateStart + newPosition * step) * inverseScaleOfCell;
-        }
-      }
-    }
-    return pressureForWaterContent(cell, target, pressurePa * previousScale * inverseScaleOfCell);
+    const storedWater = (specificStoragePerPa[cell] as number) * airEntryRef * inverseScaleOfCell;
+    const saturation = (target - storedWater) * inversePorosity;
+    const onSegment = pressureOnSameSegment(table, saturation, previousReference);
+    if (!Number.isNaN(onSegment)) return onSegment * inverseScaleOfCell;
+    return pressureForWaterContent(cell, target, previousReference * inverseScaleOfCell);
   };
 
   return {
@@ -418,9 +293,7 @@ export function createPoreHydraulics(options: PoreHydraulicsOptions): PoreHydrau
       if (reference >= airEntryRef) return 1;
       return saturationBelowAirEntry(reference);
     },
-    waterContentAt(cell, pressurePa) {
-      return waterContent(cell, pressurePa);
-    },
+    waterContentAt: waterContent,
     pressureForWaterContent,
     pressureKeepingWater: keepWater,
     setTemperaturesKeepingWater(temperatures, pressures) {
@@ -454,14 +327,7 @@ export function createPoreHydraulics(options: PoreHydraulicsOptions): PoreHydrau
     },
     equivalentPorePressurePa(cell, pressurePa) {
       const scale = pressureScale[cell] as number;
-      const reference = pressurePa * scale;
-      if (!(reference < airEntryRef))
-        return equivalentPressure.fromLiquidPressure(reference) / scale;
-      const position = (log2Linear(-reference) - coordinateStart) * inverseStep;
-      if (!(position < lastNode)) return equivalentPressure.fromLiquidPressure(reference) / scale;
-      const node = position > 0 ? Math.floor(position) : 0;
-      const below = equivalentAtNode(node);
-      return (below + (position - node) * (equivalentAtNode(node + 1) - below)) / scale;
+      return equivalentAtReference(pressurePa * scale) / scale;
     },
     waterContents(pressurePa, water, storageContent) {
       // evaluate()'s water content and storage, term for term (the same bits), alone.
@@ -525,7 +391,7 @@ export function createPoreHydraulics(options: PoreHydraulicsOptions): PoreHydrau
           if (wantSlope) conductivitySlope[i] = 0;
           continue;
         }
-        // The table look-up of `lookup`, inlined with locals: this loop runs for every cell in
+        // The table look-ups of S and k, inlined with locals: this loop runs for every cell in
         // every iteration.
         const coordinate = log2Linear(-pressure * scale);
         const position = (coordinate - coordinateStart) * inverseStep;
