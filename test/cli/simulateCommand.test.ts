@@ -195,6 +195,33 @@ describe('meniscus simulate', () => {
     });
   });
 
+  it("says a preset's known limits with every run of it, and not with --psd or other presets", async () => {
+    const notesOf = async (args: string[]) =>
+      String(
+        (await runCliJson([...args, ...STEADY, '--hours', '1'], folder.path, callCli)).json.notes,
+      );
+    const concrete = [
+      'simulate',
+      '--material',
+      'normal-concrete',
+      '--thickness-mm',
+      '100',
+      '--cells',
+      '30',
+    ];
+    expect(await notesOf(concrete)).toContain(
+      'known limit of normal-concrete: the model drains the body of a fresh slab further than sites see',
+    );
+    expect(await notesOf(BASE)).not.toContain('known limit');
+    const psd = folder.write(
+      'own-pores.json',
+      JSON.stringify({ lognormal: [{ medianDiameterUm: 0.2, geometricSd: 2, volumeFraction: 1 }] }),
+    );
+    expect(await notesOf([...concrete, '--psd', psd, '--porosity', '0.15'])).not.toContain(
+      'known limit',
+    );
+  });
+
   it('reads a weather CSV with ISO times and a measure log, and the measure lowers the water loss', async () => {
     const weather = folder.write(
       'weather.csv',

@@ -220,6 +220,12 @@ async function run(flags: FlagReader, context: CommandContext) {
     relativeHumidity: entry.profiles.relativeHumidity,
   }));
   const notes: string[] = [];
+  // A preset's known limits (its own pores only: --psd brings other pores).
+  if (flags.optionalString('--psd') === undefined) {
+    for (const limitation of material.preset.limitations ?? []) {
+      notes.push(`known limit of ${material.preset.id}: ${limitation}.`);
+    }
+  }
   const weatherEndH = (weather.at(-1)?.timeS ?? 0) / 3600;
   if (weatherPath !== undefined && weatherEndH < hours) {
     notes.push(

@@ -57,6 +57,8 @@ export const materialPresetSchema = z.object({
   hardenedPores: poreSizes.optional(),
   mix: mix.optional(),
   fixedStrength: fixedStrength.optional(),
+  /** Known limits of the model with this preset, said with every run that uses it. */
+  limitations: z.array(z.string().min(10)).optional(),
 });
 
 /** A validated preset. */
