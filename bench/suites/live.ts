@@ -26,7 +26,7 @@ import { type BenchFigure, type BenchSuite, ratioFigure } from '../figure.ts';
 
 const MEMBERS = 32;
 const CELLS = 60;
-const REPETITIONS = 3;
+const REPETITIONS = 7;
 
 const suite: BenchSuite = async () => {
   const folder = loadScenarioFolder('level3-topping');

@@ -141,11 +141,7 @@ export function advanceTransport(
   const next = workspace.trialPressurePa; // no allocation per call (one per interval)
   // A retry the check asked for (NaN: none): same start, shorter step.
   let retryS = Number.NaN;
-  const picardOptions: ImplicitStepOptions = {
-    ...options,
-    linearisation: 'picard',
-    maxIterations: picardFallbackIterations,
-  };
+  let picardOptions: ImplicitStepOptions | null = null; // built on the first Newton failure
   /** One trial step from the state's pressures into `next`. */
   const attempt = (stepS: number, surface: SurfaceCondition, stepOptions: ImplicitStepOptions) =>
     implicitStep(
@@ -180,6 +176,11 @@ export function advanceTransport(
     if (!result.converged && (options.linearisation ?? 'newton') === 'newton') {
       // Newton can cycle where the curves have kinks (air entry, fully drained pores); the
       // Picard iteration is slower but monotone there, so it gets one try before the step is cut.
+      picardOptions ??= {
+        ...options,
+        linearisation: 'picard',
+        maxIterations: picardFallbackIterations,
+      };
       result = attempt(stepS, surface, picardOptions);
     }
     if (!result.converged) {
