@@ -70,7 +70,8 @@ export interface ElementModel {
    * Advances `state` in place to `timeS` (s since placement) with `inputs` held over the
    * interval. Throws BoundaryInputError for refused inputs (e.g. freezing) and
    * EngineConvergenceError if the transport cannot converge; a target at or before the state's
-   * time only updates the temperatures.
+   * time only updates the temperatures. The state it leaves has its pressures on its curves: the
+   * pore refinement its last step's ages call for is applied at the start of the next interval.
    */
   advanceTo(state: ElementState, timeS: number, inputs: BoundaryInputs): void;
   /** Points the shared hydraulics at a state (temperatures, refinement, storage). */
