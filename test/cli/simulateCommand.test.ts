@@ -17,6 +17,16 @@ const BASE = [
   '30',
 ];
 const STEADY = ['--air-temp', '30', '--rh', '40', '--wind', '15'];
+/** A 100 mm slab of the normal-concrete preset on a coarse grid. */
+const CONCRETE_100 = [
+  'simulate',
+  '--material',
+  'normal-concrete',
+  '--thickness-mm',
+  '100',
+  '--cells',
+  '30',
+];
 
 describe('meniscus simulate', () => {
   it('--json prints the summary keys, a series and the requested profiles', async () => {
@@ -64,15 +74,7 @@ describe('meniscus simulate', () => {
   it('--target-fcm sets the strength forecast: hours to the target at the end of the run, surface and core', async () => {
     const forecastOf = async (target: string[]) => {
       const { json } = await runCliJson(
-        [
-          'simulate',
-          '--material',
-          'normal-concrete',
-          '--thickness-mm',
-          '100',
-          '--cells',
-          '30',
-        ].concat(STEADY, ['--hours', '8'], target),
+        CONCRETE_100.concat(STEADY, ['--hours', '8'], target),
         undefined,
         callCli,
       );
@@ -92,19 +94,7 @@ describe('meniscus simulate', () => {
 
   it('the table says when the strength target is reached at the end, and the hours when it is not', async () => {
     const tableOf = async (hours: string) =>
-      (
-        await runCli(
-          [
-            'simulate',
-            '--material',
-            'normal-concrete',
-            '--thickness-mm',
-            '100',
-            '--cells',
-            '30',
-          ].concat(STEADY, ['--hours', hours]),
-        )
-      ).stdout;
+      (await runCli(CONCRETE_100.concat(STEADY, ['--hours', hours]))).stdout;
     // The check is the wording: this 100 mm slab's core is below 10 MPa in place at 4 h (it has
     // barely set) and past it at 16 h at 30 degC (the engine's EN 1992-1-1 3.1.2 strength law);
     // a dried surface may stop hydrating short of it, so only the core must read "reached".
@@ -200,16 +190,7 @@ describe('meniscus simulate', () => {
       String(
         (await runCliJson([...args, ...STEADY, '--hours', '1'], folder.path, callCli)).json.notes,
       );
-    const concrete = [
-      'simulate',
-      '--material',
-      'normal-concrete',
-      '--thickness-mm',
-      '100',
-      '--cells',
-      '30',
-    ];
-    expect(await notesOf(concrete)).toContain(
+    expect(await notesOf(CONCRETE_100)).toContain(
       'known limit of normal-concrete: the model drains the body of a fresh slab further than sites see',
     );
     expect(await notesOf(BASE)).not.toContain('known limit');
@@ -217,7 +198,7 @@ describe('meniscus simulate', () => {
       'own-pores.json',
       JSON.stringify({ lognormal: [{ medianDiameterUm: 0.2, geometricSd: 2, volumeFraction: 1 }] }),
     );
-    expect(await notesOf([...concrete, '--psd', psd, '--porosity', '0.15'])).not.toContain(
+    expect(await notesOf([...CONCRETE_100, '--psd', psd, '--porosity', '0.15'])).not.toContain(
       'known limit',
     );
   });

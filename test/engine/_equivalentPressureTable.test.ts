@@ -1,17 +1,9 @@
 import { describe, expect, it } from 'vitest';
 import { exp2Linear } from '../../server/src/engine/_log2Linear.ts';
 import { poreReferenceCurves } from '../../server/src/engine/_poreReferenceCurves.ts';
+import { FINE_PASTE_CURVES } from './_scenarios.ts';
 
-const curves = poreReferenceCurves({
-  poreSizes: {
-    kind: 'lognormal',
-    modes: [{ medianDiameterM: 0.05e-6, geometricSd: 3, volumeFraction: 1 }],
-  },
-  porosity: 0.15,
-  tortuosity: 3,
-  saturatedPermeabilityM2: undefined,
-  referenceTemperatureK: 293.15,
-});
+const curves = poreReferenceCurves(FINE_PASTE_CURVES);
 const { table, equivalentPressure, equivalentTable } = curves;
 const nodePressurePa = (node: number): number =>
   -exp2Linear(table.coordinateStart + node / table.inverseStep);

@@ -7,17 +7,9 @@ import {
 } from '../../server/src/engine/_hydraulicTable.ts';
 import { log2Linear } from '../../server/src/engine/_log2Linear.ts';
 import { poreReferenceCurves } from '../../server/src/engine/_poreReferenceCurves.ts';
+import { FINE_PASTE_CURVES } from './_scenarios.ts';
 
-const { table } = poreReferenceCurves({
-  poreSizes: {
-    kind: 'lognormal',
-    modes: [{ medianDiameterM: 0.05e-6, geometricSd: 3, volumeFraction: 1 }],
-  },
-  porosity: 0.15,
-  tortuosity: 3,
-  saturatedPermeabilityM2: undefined,
-  referenceTemperatureK: 293.15,
-});
+const { table } = poreReferenceCurves(FINE_PASTE_CURVES);
 const lastNode = table.nodeCount - 1;
 
 /** The forward read the inverse must undo: S interpolated linearly in v between nodes. */

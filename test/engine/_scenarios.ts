@@ -1,5 +1,6 @@
 /** Shared scenarios of the engine tests (an invented site: a slab poured on a summer morning). */
 import type { CuringMeasure } from '../../server/src/physics/curingMeasures.ts';
+import type { PoreReferenceParameters } from '../../server/src/engine/_poreReferenceCurves.ts';
 import {
   createElementModel,
   type ElementModelConfig,
@@ -113,3 +114,18 @@ export function measure(
 ): CuringMeasure {
   return { kind, startMs: startH * HOUR_S * 1000, endMs: endH * HOUR_S * 1000, ...extra };
 }
+
+/**
+ * Reference-curve parameters of a fine hardened paste (one log-normal mode of 0.05 um median,
+ * porosity 0.15, tortuosity 3; invented for the table tests).
+ */
+export const FINE_PASTE_CURVES: PoreReferenceParameters = {
+  poreSizes: {
+    kind: 'lognormal',
+    modes: [{ medianDiameterM: 0.05e-6, geometricSd: 3, volumeFraction: 1 }],
+  },
+  porosity: 0.15,
+  tortuosity: 3,
+  saturatedPermeabilityM2: undefined,
+  referenceTemperatureK: 293.15,
+};
