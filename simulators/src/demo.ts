@@ -15,7 +15,7 @@ import { checkSpeed } from './playClock.ts';
 import { playScenario } from './playScenario.ts';
 import type { PlayResult } from './playScenario.ts';
 import { DEMO_SCENARIO, loadScenarioFolder } from './scenarioFolder.ts';
-import { api, findOrCreateRun, measureLogger } from './serverRun.ts';
+import { api, closeRun, findOrCreateRun, measureLogger } from './serverRun.ts';
 import { utcOffsetMin } from './scenarioSchema.ts';
 import type { ScenarioMeasure } from './scenarioSchema.ts';
 
@@ -185,10 +185,17 @@ export async function startDemo(options: DemoOptions): Promise<DemoRun> {
   const server = await startServer(options.config);
   const baseUrl = `http://${reachableHost(options.config.httpHost)}:${server.httpPort}`;
   try {
-    const { runId, existing } = await findOrCreateRun(baseUrl, runConfig, runConfigInput);
+    let { runId, existing } = await findOrCreateRun(baseUrl, runConfig, runConfigInput);
     if (existing) {
+      // A demo plays its scenario from the start. Played into a run that an earlier play took
+      // past that start, its readings arrive after the engine processed their time and are
+      // quarantined, unless they are the very readings stored (another measure log or another
+      // seed of the truth are not): the earlier run is closed and the play gets a run of its own.
+      const earlierRunId = runId;
+      await closeRun(baseUrl, earlierRunId, 'a new demo play of the scenario');
+      ({ runId, existing } = await findOrCreateRun(baseUrl, runConfig, runConfigInput));
       print(
-        `Run ${runId} of this scenario is already in the archive: playing into it (readings already stored are kept once).`,
+        `An earlier demo run of this scenario (${earlierRunId}) is closed; it stays in the archive. This play starts run ${runId}.`,
       );
     }
     const mqttUrl =

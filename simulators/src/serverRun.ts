@@ -125,6 +125,23 @@ export async function findOrCreateRun(
 }
 
 /**
+ * Closes a run (`POST /api/runs/:id/close`, closed by the demo crew) with `note`.
+ *
+ * @throws Error naming the HTTP status and body when the server refuses
+ */
+export async function closeRun(baseUrl: string, runId: string, note: string): Promise<void> {
+  const response = await api(baseUrl, `/runs/${runId}/close`, {
+    method: 'POST',
+    body: JSON.stringify({ closedBy: DEMO_CREW, note }),
+  });
+  if (response.status !== 200) {
+    throw new Error(
+      `closing run ${runId} failed: HTTP ${response.status} ${(await response.text()).slice(0, 200)}`,
+    );
+  }
+}
+
+/**
  * A measure logger for onMeasureStart: posts each measure to the run. A failure does not stop
  * the play; the first one is reported through `report` as "(the server did not log the
  * measure: <why>)", later ones silently.

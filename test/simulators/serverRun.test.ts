@@ -14,6 +14,7 @@ import { loadScenarioFolder } from '../../simulators/src/scenarioFolder.ts';
 import type { ScenarioMeasure } from '../../simulators/src/scenarioSchema.ts';
 import {
   DEMO_CREW,
+  closeRun,
   findOrCreateRun,
   measureBody,
   measureLogger,
@@ -49,6 +50,21 @@ describe('findOrCreateRun() and measureLogger() on a real server', () => {
     expect(first.existing).toBe(false);
     const second = await findOrCreateRun(baseUrl, runConfig, runConfigInput);
     expect(second).toEqual({ runId: first.runId, existing: true });
+  });
+
+  it('closeRun() closes the run with the crew and note, and the next findOrCreateRun() creates a new one', async () => {
+    const first = await findOrCreateRun(baseUrl, runConfig, runConfigInput);
+    await closeRun(baseUrl, first.runId, 'a new demo play of the scenario');
+    const run = (await (await fetch(`${baseUrl}/api/runs/${first.runId}`)).json()) as {
+      status: string;
+    };
+    expect(run.status).toBe('closed');
+    const next = await findOrCreateRun(baseUrl, runConfig, runConfigInput);
+    expect(next.existing).toBe(false);
+    expect(next.runId).not.toBe(first.runId);
+    await expect(closeRun(baseUrl, first.runId, 'again')).rejects.toThrow(
+      new RegExp(`^closing run ${first.runId} failed: HTTP 409 `),
+    );
   });
 
   it('names the HTTP status and body when the server refuses the run', async () => {
