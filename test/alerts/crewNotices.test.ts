@@ -15,6 +15,7 @@ import { parseRunConfig } from '../../server/src/config/runConfig.ts';
 import { Ingestor } from '../../server/src/ingest/ingestor.ts';
 import type { CreateRunEngine, RunState } from '../../server/src/live/types.ts';
 import { LiveHost } from '../../server/src/liveHost/liveHost.ts';
+import type { MeasureStart } from '../../server/src/runs/measureInput.ts';
 import { RunLifecycle } from '../../server/src/runs/runLifecycle.ts';
 import { Archive } from '../../server/src/store/archive.ts';
 import { EXAMPLE_PLACED_AT_MS, exampleRunInput } from '../helpers/exampleRun.ts';
@@ -78,6 +79,21 @@ interface Rig {
   notices: CrewNotices;
   logged: string[];
   announced: Notice[];
+}
+
+/** Logs an open measure of `kind` on run-1 from `minute` minutes after placement. */
+function startMeasureAt(
+  lifecycle: RunLifecycle,
+  kind: MeasureStart['kind'],
+  minute: number,
+  loggedBy = 'J. Okafor',
+): void {
+  lifecycle.startMeasure('run-1', {
+    kind,
+    startMs: EXAMPLE_PLACED_AT_MS + minute * MIN,
+    endMs: null,
+    loggedBy,
+  });
 }
 
 function rig(file: string): Rig {
@@ -208,12 +224,7 @@ describe('CrewNotices', () => {
     createRun(r);
     await publishMinutes(r, 0, 30);
     await r.host.idle();
-    r.lifecycle.startMeasure('run-1', {
-      kind: 'windbreak',
-      startMs: EXAMPLE_PLACED_AT_MS + 20 * MIN,
-      endMs: null,
-      loggedBy: 'J. Okafor',
-    });
+    startMeasureAt(r.lifecycle, 'windbreak', 20);
     await publishMinutes(r, 30, 100);
     await r.host.idle();
     const warnings = r.notices.list('run-1').filter((n) => n.kind === 'margin-outlook');
@@ -236,12 +247,7 @@ describe('CrewNotices', () => {
     createRun(r);
     await publishMinutes(r, 0, 30);
     await r.host.idle();
-    r.lifecycle.startMeasure('run-1', {
-      kind: 'fogging',
-      startMs: EXAMPLE_PLACED_AT_MS + 20 * MIN,
-      endMs: null,
-      loggedBy: 'J. Okafor',
-    });
+    startMeasureAt(r.lifecycle, 'fogging', 20);
     r.lifecycle.endMeasure('run-1', 'm1', EXAMPLE_PLACED_AT_MS + 90 * MIN, 'J. Okafor');
     const noted = r.notices.list('run-1').filter((n) => n.kind === 'measure-logged');
     expect(noted.map((n) => [n.level, n.raisedAtMs, n.title])).toEqual([
@@ -253,12 +259,7 @@ describe('CrewNotices', () => {
     ]);
     r.archive.close();
     const restarted = rig('measures.sqlite');
-    restarted.lifecycle.startMeasure('run-1', {
-      kind: 'windbreak',
-      startMs: EXAMPLE_PLACED_AT_MS + 40 * MIN,
-      endMs: null,
-      loggedBy: 'J. Okafor',
-    });
+    startMeasureAt(restarted.lifecycle, 'windbreak', 40);
     expect(
       restarted.notices
         .list('run-1')

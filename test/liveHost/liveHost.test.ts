@@ -9,6 +9,7 @@ import { LiveHost } from '../../server/src/liveHost/liveHost.ts';
 import { liveReading } from '../../server/src/liveHost/liveReading.ts';
 import { replayRun } from '../../server/src/liveHost/runFeed.ts';
 import type { LiveHostOptions } from '../../server/src/liveHost/liveHost.ts';
+import type { MeasureStart } from '../../server/src/runs/measureInput.ts';
 import { RunLifecycle } from '../../server/src/runs/runLifecycle.ts';
 import { Archive } from '../../server/src/store/archive.ts';
 import { EXAMPLE_PLACED_AT_MS, exampleRunInput } from '../helpers/exampleRun.ts';
@@ -33,6 +34,21 @@ interface Rig {
   host: LiveHost;
   ingestor: Ingestor;
   states: RunState[];
+}
+
+/** Logs an open measure of `kind` on run-1 from `minute` minutes after placement. */
+function startMeasureAt(
+  lifecycle: RunLifecycle,
+  kind: MeasureStart['kind'],
+  minute: number,
+  loggedBy = 'crew lead',
+): void {
+  lifecycle.startMeasure('run-1', {
+    kind,
+    startMs: EXAMPLE_PLACED_AT_MS + minute * MINUTE_MS,
+    endMs: null,
+    loggedBy,
+  });
 }
 
 function rig(file: string, options: LiveHostOptions = {}): Rig {
@@ -136,12 +152,7 @@ describe('LiveHost', () => {
   it('tells the engine the measure log and the forecast, also after a restart', async () => {
     const r = rig('a.sqlite');
     createRun(r);
-    r.lifecycle.startMeasure('run-1', {
-      kind: 'wet-covering',
-      startMs: EXAMPLE_PLACED_AT_MS,
-      endMs: null,
-      loggedBy: 'crew lead',
-    });
+    startMeasureAt(r.lifecycle, 'wet-covering', 0);
     r.lifecycle.setForecast(
       'run-1',
       [{ timeMs: EXAMPLE_PLACED_AT_MS + 3_600_000, windSpeedMs: 5 }],
@@ -160,12 +171,7 @@ describe('LiveHost', () => {
     createRun(r);
     await publishMinutes(r, 0, 30);
     await r.host.idle();
-    r.lifecycle.startMeasure('run-1', {
-      kind: 'windbreak',
-      startMs: EXAMPLE_PLACED_AT_MS + 25 * MINUTE_MS,
-      endMs: null,
-      loggedBy: 'crew lead',
-    });
+    startMeasureAt(r.lifecycle, 'windbreak', 25);
     await publishMinutes(r, 30, 60);
     await r.host.idle();
     const live = r.host.state('run-1');
@@ -261,12 +267,7 @@ describe('LiveHost', () => {
     await publishMinutes(r, 0, 30);
     await r.host.idle();
     const before = seen.length;
-    r.lifecycle.startMeasure('run-1', {
-      kind: 'fogging',
-      startMs: EXAMPLE_PLACED_AT_MS + 20 * MINUTE_MS,
-      endMs: null,
-      loggedBy: 'J. Okafor',
-    });
+    startMeasureAt(r.lifecycle, 'fogging', 20, 'J. Okafor');
     await publishMinutes(r, 30, 70);
     await r.host.idle();
     expect(before).toBeGreaterThan(0);
