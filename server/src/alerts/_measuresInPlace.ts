@@ -147,10 +147,10 @@ function wordsOf(item: KindInPlace): KindWords {
   return (item.count > 1 ? SEVERAL_WORDS[item.kind] : undefined) ?? KIND_WORDS[item.kind];
 }
 
-/** `a`, `a and b`, `a, b and c`. */
+/** `a`, `a and b`, `a, b and c` (British English: no comma before "and"). */
+const conjunction = new Intl.ListFormat('en-GB', { style: 'long', type: 'conjunction' });
 function listOf(items: readonly string[]): string {
-  if (items.length <= 1) return items.join('');
-  return `${items.slice(0, -1).join(', ')} and ${items.at(-1) ?? ''}`;
+  return conjunction.format(items);
 }
 
 function capital(text: string): string {
